@@ -1,0 +1,5 @@
+"""propcheck: audit pure-compound thermophysical property databases."""
+
+__all__ = ["__version__"]
+
+__version__ = "0.1.0"

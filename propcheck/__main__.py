@@ -1,0 +1,5 @@
+"""Allow ``python -m propcheck``."""
+
+from propcheck.cli import main
+
+raise SystemExit(main())

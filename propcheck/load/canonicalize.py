@@ -1,0 +1,163 @@
+"""Turn a source table into a canonical table, in SQL.
+
+Renames mapped columns, parses numeric text (decimal comma included),
+converts declared units to canonical SI units, and reports every numeric cell
+that does not parse as a ``cell-not-numeric`` finding instead of turning it
+into a missing value. Columns the contract does not know are carried along.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import duckdb
+
+from propcheck.canonical import TableSpec
+from propcheck.database import Database, TableInfo
+from propcheck.errors import UsageError
+from propcheck.findings import Finding
+from propcheck.load.mapping import Conversion, Mapping
+from propcheck.load.sources import RawTable
+
+__all__ = ["canonicalize"]
+
+NUMERIC_TYPES = ("DOUBLE", "FLOAT", "INTEGER", "BIGINT", "SMALLINT", "TINYINT", "HUGEINT", "DECIMAL", "UBIGINT", "UINTEGER", "REAL")
+
+
+def _q(name: str) -> str:
+    return '"' + name.replace('"', '""') + '"'
+
+
+def _text(expr: str) -> str:
+    return f"NULLIF(trim(CAST({expr} AS VARCHAR)), '')"
+
+
+def _parsed(expr: str, typed: bool, decimal: str) -> str:
+    if typed:
+        return f"CAST({expr} AS DOUBLE)"
+    text = _text(expr)
+    if decimal == ",":
+        # "1.013,25" -> "1013.25"; "101,3" -> "101.3"; "101.3" stays.
+        text = f"CASE WHEN contains({text}, ',') THEN replace(replace({text}, '.', ''), ',', '.') ELSE {text} END"
+    return f"TRY_CAST({text} AS DOUBLE)"
+
+
+def _bad(expr: str, typed: bool, decimal: str) -> str:
+    parsed = _parsed(expr, typed, decimal)
+    present = f"{expr} IS NOT NULL" if typed else f"{_text(expr)} IS NOT NULL"
+    return f"({present} AND ({parsed} IS NULL OR isnan({parsed}) OR isinf({parsed})))"
+
+
+def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping) -> None:
+    """Create canonical table ``spec.name`` in ``db.con`` from ``raw``."""
+    con = db.con
+    table_map = mapping.table(spec.name)
+    raw_name = f"raw_{spec.name}"
+    try:
+        con.execute(f"CREATE TEMP TABLE {raw_name} AS SELECT row_number() OVER () AS _row, * FROM {raw.relation}")
+    except duckdb.Error as exc:
+        reason = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
+        raise UsageError(f"cannot read ({reason})", file=raw.origin, table=spec.name) from None
+    described = con.execute(f"DESCRIBE {raw_name}").fetchall()
+    types = {row[0]: row[1] for row in described if row[0] != "_row"}
+    by_lower = {name.strip().lower(): name for name in types}
+
+    chosen: dict[str, str] = {}
+    for column in spec.columns:
+        wanted = table_map.source_column(column.name)
+        actual = by_lower.get(wanted.strip().lower())
+        if actual is None:
+            if column.name in table_map.columns:
+                raise UsageError(
+                    f"mapped column {wanted!r} for {column.name} not found (mapping {mapping.path})",
+                    file=raw.origin, table=spec.name, column=column.name,
+                )
+            if column.required:
+                found = ", ".join(types) or "none"
+                raise UsageError(
+                    f"required column missing (found: {found})", file=raw.origin, table=spec.name, column=column.name
+                )
+            continue
+        chosen[column.name] = actual
+
+    rows_read = con.execute(f"SELECT count(*) FROM {raw_name}").fetchone()[0]
+    info = TableInfo(spec.name, raw.origin, rows_read=rows_read)
+    if rows_read == 0 and spec.required:
+        raise UsageError("table has no rows", file=raw.origin, table=spec.name)
+
+    select = ["_row"]
+    for column in spec.columns:
+        src = chosen.get(column.name)
+        if src is None:
+            kind = "DOUBLE" if column.numeric else "VARCHAR"
+            select.append(f"CAST(NULL AS {kind}) AS {column.name}")
+        elif column.numeric:
+            typed = types[src].upper().startswith(NUMERIC_TYPES)
+            conv = _conversion(table_map.units, column.name)
+            parsed = _parsed(_q(src), typed, raw.csv_decimal)
+            value = f"({parsed}) * {conv.scale!r} + {conv.offset!r}" if conv else parsed
+            select.append(f"CASE WHEN {_bad(_q(src), typed, raw.csv_decimal)} THEN NULL ELSE {value} END AS {column.name}")
+        else:
+            select.append(f"{_text(_q(src))} AS {column.name}")
+    used = set(chosen.values())
+    canonical_names = {c.name for c in spec.columns} | {"_row"}
+    for src in types:
+        if src not in used and src.strip().lower() not in canonical_names:
+            select.append(_q(src))
+            info.extra_columns.append(src)
+    con.execute(f"CREATE TABLE {spec.name} AS SELECT {', '.join(select)} FROM {raw_name} ORDER BY _row")
+
+    _report_bad_cells(db, spec, raw, chosen, types, info)
+    con.execute(f"DROP TABLE {raw_name}")
+    db.tables[spec.name] = info
+
+
+def _conversion(units: dict[str, Conversion], column: str) -> Conversion | None:
+    if column in units:
+        return units[column]
+    if column == "uncertainty" and "p" in units:  # an uncertainty is stated in the unit of p
+        return Conversion(units["p"].unit, units["p"].scale, 0.0)
+    return None
+
+
+def _unit_hint(text: str) -> str | None:
+    """Suggest the mapping file when a number carries a unit (``'507.6 K'``)."""
+    head, _, tail = text.strip().partition(" ")
+    try:
+        float(head.replace(",", "."))
+    except ValueError:
+        return None
+    return f"a number with a unit ({tail.strip()!r}): store the number alone and declare the unit in the mapping file" if tail.strip() else None
+
+
+def _report_bad_cells(db, spec, raw, chosen, types, info) -> None:
+    raw_name = f"raw_{spec.name}"
+    label = Path(raw.origin).name if db.kind == "folder" else raw.origin
+    id_expr = _text(_q(chosen["compound_id"]))
+    src_expr = _text(_q(chosen["source"])) if "source" in chosen else "NULL"
+    for column in spec.columns:
+        src = chosen.get(column.name)
+        if src is None or not column.numeric:
+            continue
+        typed = types[src].upper().startswith(NUMERIC_TYPES)
+        rows = db.con.execute(
+            f"SELECT _row, {id_expr}, CAST({_q(src)} AS VARCHAR), {src_expr} FROM {raw_name} "
+            f"WHERE {_bad(_q(src), typed, raw.csv_decimal)} ORDER BY _row"
+        ).fetchall()
+        for row, compound_id, text, source in rows:
+            info.cells_rejected += 1
+            db.rejected_cells.add((spec.name, row, column.name))
+            db.load_findings.append(
+                Finding(
+                    rule="cell-not-numeric",
+                    severity="error",
+                    table=spec.name,
+                    compound_id=compound_id,
+                    column=column.name,
+                    observed=text,
+                    row=row,
+                    source=source,
+                    suggestion=_unit_hint(text),
+                    message=f"{label} row {row}, column {column.name}: {text!r} is not a number",
+                )
+            )

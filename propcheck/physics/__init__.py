@@ -1,0 +1,1 @@
+"""Pure numerics in canonical SI units; no I/O, no DuckDB, no pandas."""

@@ -1,0 +1,52 @@
+"""Write every report format into the output folder, never leaving half a file."""
+
+from __future__ import annotations
+
+import os
+import tempfile
+from pathlib import Path
+
+from propcheck.errors import UsageError
+from propcheck.report.data import ReportData
+from propcheck.report.findings_csv import render_csv
+from propcheck.report.findings_json import render_json
+from propcheck.report.html import render_html
+from propcheck.report.summary_md import render_summary
+
+__all__ = ["atomic_write", "write_reports"]
+
+WRITERS = {
+    "findings.csv": render_csv,
+    "findings.json": render_json,
+    "summary.md": render_summary,
+    "report.html": render_html,
+}
+
+
+def atomic_write(path: Path, text: str) -> None:
+    """Write ``text`` to a temporary file beside ``path``, then rename it over ``path``."""
+    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", dir=path.parent)
+    try:
+        with os.fdopen(fd, "w", encoding="utf-8", newline="") as handle:
+            handle.write(text)
+        os.replace(tmp, path)
+    except BaseException:
+        Path(tmp).unlink(missing_ok=True)
+        raise
+
+
+def write_reports(data: ReportData, out_dir: str) -> list[Path]:
+    """Write findings.csv, findings.json, summary.md and report.html into ``out_dir``."""
+    folder = Path(out_dir)
+    if folder.exists() and not folder.is_dir():
+        raise UsageError("exists and is not a folder", file=out_dir, option="--out")
+    try:
+        folder.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        raise UsageError(f"cannot create the output folder ({exc.strerror})", file=out_dir, option="--out") from None
+    written = []
+    for name, render in WRITERS.items():
+        path = folder / name
+        atomic_write(path, render(data))
+        written.append(path)
+    return written

@@ -1,0 +1,1 @@
+"""Rules: one module per rule; see :mod:`propcheck.rules.registry`."""

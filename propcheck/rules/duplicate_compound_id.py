@@ -1,0 +1,34 @@
+"""Two rows of ``compounds`` share one ``compound_id``.
+
+What it checks
+    ``compound_id`` is unique in ``compounds``.
+
+Why it matters
+    Vapor-pressure points, baselines and waivers find a compound by its id;
+    with two rows under one id nobody can tell which constants the points
+    belong to. The first row is kept and checked; every later row with the
+    same id is rejected and reported here.
+
+Method
+    Uniqueness check on the trimmed id (pandera ``unique``).
+
+Parameters
+    None.
+
+Example finding
+    ``compounds row 31: compound_id LPC-0007 is used again (first at row 7, 'n-heptane')``
+
+References
+    1. Data contract, section 1 (compound_id is the unique key).
+"""
+
+from propcheck.rules.base import RuleInfo
+
+RULE = RuleInfo(
+    id="duplicate-compound-id",
+    title="compound_id used by more than one row",
+    severity="error",
+    stage="schema",
+    method="uniqueness of the key column",
+    reference="data contract section 1",
+)

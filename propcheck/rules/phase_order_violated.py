@@ -1,0 +1,113 @@
+"""Melting point, normal boiling point and critical temperature out of order.
+
+What it checks
+    tm < tb < tc for every compound (each pair where both values are
+    present; tm < tc when tb is empty, as for a compound that sublimes at
+    1 atm).
+
+Why it matters
+    A liquid exists at 1 atm only between its melting and boiling points, and
+    it boils below its critical temperature. Out-of-order values almost
+    always mean a temperature stored in degC or degF, or two columns swapped.
+
+Method
+    Phase order of a pure compound, Tt <= Tm < Tb < Tc (Poling et al.,
+    ch. 2). To point at the wrong column, each of tm, tb and tc is tried
+    with the usual temperature-scale slips (degC, degF, degR stored as K)
+    and with tb and tc swapped; a repair that restores the order and puts
+    tb/tc inside the Guldberg band is reported with its corrected value.
+    Without a repair the finding names tb when tb >= tc and tm otherwise.
+
+Parameters
+    guldberg_band
+        [low, high] of tb/tc accepted for a repair (Guldberg's rule, tb/tc near 2/3).
+
+Example finding
+    ``tb = 341.87 K is not below tc = 234.45 K; tc is likely wrong
+    (degC entered as K? corrected 507.6 K)``
+
+References
+    1. Poling, Prausnitz, O'Connell, The Properties of Gases and Liquids,
+       5th ed., McGraw-Hill (2001), ch. 2.
+    2. C. M. Guldberg, Z. Phys. Chem. 5, 374 (1890) (tb/tc near 2/3).
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import pandas as pd
+
+from propcheck.findings import Finding
+from propcheck.physics.unit_slips import TEMPERATURE_SLIPS
+from propcheck.rules.base import RuleInfo
+
+RULE = RuleInfo(
+    id="phase-order-violated",
+    title="tm < tb < tc violated",
+    severity="error",
+    stage="consistency",
+    method="phase order Tm < Tb < Tc; repair by temperature-scale slips and Guldberg's rule",
+    reference="Poling et al. 2001, ch. 2; Guldberg 1890",
+    params={"guldberg_band": "[low, high] of tb/tc accepted when proposing a repair"},
+)
+
+
+def _ordered(tm, tb, tc):
+    ok_mb = ~(np.isfinite(tm) & np.isfinite(tb)) | (tm < tb)
+    ok_bc = ~(np.isfinite(tb) & np.isfinite(tc)) | (tb < tc)
+    ok_mc = ~(np.isfinite(tm) & np.isfinite(tc)) | (tm < tc)
+    return ok_mb & ok_bc & ok_mc
+
+
+def _in_band(tb, tc, band):
+    ratio = tb / tc
+    return ~(np.isfinite(tb) & np.isfinite(tc)) | ((ratio >= band[0]) & (ratio <= band[1]))
+
+
+def check(db, params) -> list[Finding]:
+    c = db.df("SELECT _row AS c_row, compound_id, source, tm, tb, tc FROM compounds")
+    t = {k: c[k].to_numpy(dtype=float) for k in ("tm", "tb", "tc")}
+    bad = ~_ordered(t["tm"], t["tb"], t["tc"])
+    if not bad.any():
+        return []
+    c, t = c[bad].reset_index(drop=True), {k: v[bad] for k, v in t.items()}
+    band = params["guldberg_band"]
+    n = len(c)
+    column = np.where(np.isfinite(t["tb"]) & np.isfinite(t["tc"]) & (t["tb"] >= t["tc"]), "tb", "tm").astype(object)
+    fixed = np.full(n, np.nan)
+    why = np.full(n, "", dtype=object)
+    found = np.zeros(n, dtype=bool)
+    for name in ("tc", "tb", "tm"):
+        for what, convert in TEMPERATURE_SLIPS:
+            trial = dict(t)
+            trial[name] = convert(t[name])
+            ok = ~found & np.isfinite(t[name]) & _ordered(**trial) & _in_band(trial["tb"], trial["tc"], band)
+            column[ok], fixed[ok], why[ok] = name, trial[name][ok], what
+            found |= ok
+    swap = ~found & _ordered(t["tm"], t["tc"], t["tb"]) & _in_band(t["tc"], t["tb"], band)
+    column[swap], fixed[swap], why[swap] = "tb", t["tc"][swap], "tb and tc swapped"
+    findings = []
+    for i, rec in enumerate(c.itertuples(index=False)):
+        tm, tb, tc = t["tm"][i], t["tb"][i], t["tc"][i]
+        parts = []
+        if np.isfinite(tm) and np.isfinite(tb) and tm >= tb:
+            parts.append(f"tm = {tm:.6g} K is not below tb = {tb:.6g} K")
+        if np.isfinite(tb) and np.isfinite(tc) and tb >= tc:
+            parts.append(f"tb = {tb:.6g} K is not below tc = {tc:.6g} K")
+        if np.isfinite(tm) and np.isfinite(tc) and tm >= tc:
+            parts.append(f"tm = {tm:.6g} K is not below tc = {tc:.6g} K")
+        col = column[i]
+        message = "; ".join(parts) + f"; {col} is likely wrong"
+        suggestion = None
+        if why[i]:
+            suggestion = f"{why[i]} corrected {col} {fixed[i]:.6g} K" if why[i] != "tb and tc swapped" else "tb and tc swapped?"
+        findings.append(
+            Finding(
+                rule=RULE.id, severity=RULE.severity, table="compounds", compound_id=rec.compound_id, column=col,
+                observed=float(t[col][i]), expected=(float(fixed[i]) if np.isfinite(fixed[i]) else None),
+                row=int(rec.c_row), source=rec.source, suggestion=suggestion,
+                reference="phase order tm < tb < tc; Guldberg tb/tc band" if why[i] else "phase order tm < tb < tc",
+                message=message,
+            )
+        )
+    return findings

@@ -1,0 +1,176 @@
+"""Vapor pressure falls where temperature rises.
+
+What it checks
+    Per compound, the points sorted by temperature: each pressure exceeds
+    the one before it by more than their combined stated uncertainty allows
+    to fall. Two points at the same temperature must agree within a
+    relative spread.
+
+Why it matters
+    Below the critical point the saturation pressure rises strictly with
+    temperature. A point that breaks this is a blunder: a unit slip on one
+    value (kPa stored as Pa), a swapped or mistyped digit, or points of
+    another compound mixed in.
+
+Method
+    Clapeyron equation, dp/dT = dH_vap / (T dV_vap) > 0 below Tc. For each
+    adjacent pair (T1 < T2) a drop p1 - p2 > k sqrt(u1^2 + u2^2) is a
+    finding, where u is the stated standard uncertainty of p or, when none
+    is stated, ``default_relative_uncertainty`` x p. The point to blame is
+    the one out of line with its other neighbour: the earlier point when the
+    later one still exceeds the point before the pair, else the later one.
+    The expected value interpolates ln p linearly in 1/T between the blamed
+    point's neighbours (Clausius-Clapeyron), and a factor between observed
+    and expected that matches a unit (1000, 1e5, 1e6, 101325, 133.322, 6894.76)
+    is named in ``suggestion``. Two points less than ``same_t_tolerance``
+    apart that differ by more than ``same_t_relative_spread`` give a warning.
+
+Parameters
+    default_relative_uncertainty
+        Relative standard uncertainty of p assumed where none is stated.
+    coverage_factor
+        k applied to the combined standard uncertainty of a pair.
+    same_t_tolerance
+        Temperatures closer than this [K] count as the same temperature.
+    same_t_relative_spread
+        Relative difference of p tolerated between points at the same temperature.
+
+Example finding
+    ``p = 98.4 Pa at 330 K is below 61200 Pa at 320 K; expected about 98400 Pa
+    (value is 0.001x: kPa entered as Pa?)``
+
+References
+    1. Poling, Prausnitz, O'Connell, The Properties of Gases and Liquids,
+       5th ed., McGraw-Hill (2001), ch. 7 (Clapeyron equation).
+    2. JCGM 100:2008 (GUM), section 5 (combined standard uncertainty).
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import pandas as pd
+
+from propcheck.findings import Finding
+from propcheck.physics.unit_slips import pressure_slip
+from propcheck.rules.base import RuleInfo
+
+RULE = RuleInfo(
+    id="vp-falls-with-temperature",
+    title="Vapor pressure falls as temperature rises",
+    severity="error",
+    stage="consistency",
+    method="Clapeyron: dp/dT > 0 below Tc; drops beyond combined uncertainty",
+    reference="Poling et al. 2001, ch. 7; GUM (JCGM 100:2008)",
+    params={
+        "default_relative_uncertainty": "relative standard uncertainty of p where none is stated",
+        "coverage_factor": "k applied to the combined standard uncertainty of two points",
+        "same_t_tolerance": "points closer than this [K] are at the same temperature",
+        "same_t_relative_spread": "relative difference of p tolerated at the same temperature",
+    },
+)
+
+_SQL = """
+WITH pts AS (
+    SELECT compound_id, _row, t, p, source,
+           coalesce(uncertainty, ? * p) AS u
+    FROM vapor_pressure
+    WHERE compound_id IS NOT NULL AND t IS NOT NULL AND p IS NOT NULL
+), seq AS (
+    SELECT *,
+        lag(_row) OVER w AS row_a, lag(t) OVER w AS t_a, lag(p) OVER w AS p_a, lag(u) OVER w AS u_a,
+        lag(source) OVER w AS source_a,
+        lag(t, 2) OVER w AS t_before, lag(p, 2) OVER w AS p_before,
+        lead(t) OVER w AS t_after, lead(p) OVER w AS p_after
+    FROM pts
+    WINDOW w AS (PARTITION BY compound_id ORDER BY t, _row)
+)
+SELECT compound_id, row_a, t_a, p_a, source_a, _row AS row_b, t AS t_b, p AS p_b, source AS source_b,
+       t_before, p_before, t_after, p_after,
+       ? * sqrt(u * u + u_a * u_a) AS allowed,
+       t - t_a < ? AS same_t
+FROM seq
+WHERE row_a IS NOT NULL
+  AND ((t - t_a >= ? AND p_a - p > ? * sqrt(u * u + u_a * u_a))
+    OR (t - t_a < ? AND abs(p - p_a) > ? * greatest(p, p_a)))
+ORDER BY compound_id, t_b
+"""
+
+
+def _loglin(t1, p1, t2, p2, t):
+    """ln p linear in 1/T through (t1, p1) and (t2, p2), evaluated at t."""
+    with np.errstate(all="ignore"):
+        x1, x2, x = 1.0 / t1, 1.0 / t2, 1.0 / t
+        return np.exp(np.log(p1) + (np.log(p2) - np.log(p1)) * (x - x1) / (x2 - x1))
+
+
+def check(db, params) -> list[Finding]:
+    if not db.has("vapor_pressure"):
+        return []
+    tol_t = params["same_t_tolerance"]
+    pairs = db.df(
+        _SQL,
+        [params["default_relative_uncertainty"], params["coverage_factor"], tol_t, tol_t,
+         params["coverage_factor"], tol_t, params["same_t_relative_spread"]],
+    )
+    if pairs.empty:
+        return []
+    findings = _drops(pairs[~pairs["same_t"]]) + _same_t(pairs[pairs["same_t"]], params)
+    return findings
+
+
+def _drops(d: pd.DataFrame) -> list[Finding]:
+    if d.empty:
+        return []
+    has_before = d["p_before"].notna()
+    blame_a = (has_before & (d["p_b"] >= d["p_before"])) | (~has_before & d["p_after"].notna() & (d["p_a"] > d["p_after"]))
+    t_obs = np.where(blame_a, d["t_a"], d["t_b"])
+    p_obs = np.where(blame_a, d["p_a"], d["p_b"])
+    # expected from the blamed point's other neighbours
+    t_lo = np.where(blame_a, d["t_before"], d["t_a"])
+    p_lo = np.where(blame_a, d["p_before"], d["p_a"])
+    t_hi = np.where(blame_a, d["t_b"], d["t_after"])
+    p_hi = np.where(blame_a, d["p_b"], d["p_after"])
+    expected = _loglin(t_lo.astype(float), p_lo.astype(float), t_hi.astype(float), p_hi.astype(float), t_obs.astype(float))
+    text, corrected = pressure_slip(p_obs, expected)
+    findings = []
+    seen = set()
+    for i, rec in enumerate(d.itertuples(index=False)):
+        row = rec.row_a if blame_a.iloc[i] else rec.row_b
+        if row in seen:
+            continue
+        seen.add(row)
+        other = f"{rec.p_b:.6g} Pa at {rec.t_b:.6g} K" if blame_a.iloc[i] else f"{rec.p_a:.6g} Pa at {rec.t_a:.6g} K"
+        relation = "above" if blame_a.iloc[i] else "below"
+        exp = float(expected[i]) if np.isfinite(expected[i]) else None
+        message = f"p = {p_obs[i]:.6g} Pa at {t_obs[i]:.6g} K is {relation} {other}: vapor pressure must rise with temperature"
+        if exp is not None:
+            message += f"; its neighbours give about {exp:.4g} Pa"
+        findings.append(
+            Finding(
+                rule=RULE.id, severity=RULE.severity, table="vapor_pressure", compound_id=rec.compound_id,
+                column="p", t=float(t_obs[i]), observed=float(p_obs[i]), expected=exp,
+                tolerance=float(rec.allowed), row=int(row),
+                source=rec.source_a if blame_a.iloc[i] else rec.source_b,
+                suggestion=(f"{text[i]} corrected {corrected[i]:.6g} Pa" if text[i] else None),
+                reference="ln p linear in 1/T between neighbouring points (Clausius-Clapeyron)" if exp else None,
+                message=message,
+            )
+        )
+    return findings
+
+
+def _same_t(d: pd.DataFrame, params) -> list[Finding]:
+    findings = []
+    for rec in d.itertuples(index=False):
+        spread = abs(rec.p_b - rec.p_a) / max(rec.p_a, rec.p_b)
+        findings.append(
+            Finding(
+                rule=RULE.id, severity="warning", table="vapor_pressure", compound_id=rec.compound_id,
+                column="p", t=float(rec.t_b), observed=float(rec.p_b), expected=float(rec.p_a),
+                tolerance=params["same_t_relative_spread"], row=int(rec.row_b), source=rec.source_b,
+                reference="repeat point at the same temperature",
+                message=(f"two points at {rec.t_b:.6g} K disagree by {spread:.1%}: {rec.p_a:.6g} Pa (row {rec.row_a}) "
+                         f"and {rec.p_b:.6g} Pa (row {rec.row_b})"),
+            )
+        )
+    return findings

@@ -1,0 +1,1 @@
+"""Rule packs shipped with propcheck (installed as ``propcheck.packs``)."""
