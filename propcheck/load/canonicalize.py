@@ -133,18 +133,20 @@ def _unit_hint(text: str) -> str | None:
 def _report_bad_cells(db, spec, raw, chosen, types, info) -> None:
     raw_name = f"raw_{spec.name}"
     label = Path(raw.origin).name if db.kind == "folder" else raw.origin
-    id_expr = _text(_q(chosen["compound_id"]))
-    src_expr = _text(_q(chosen["source"])) if "source" in chosen else "NULL"
+    id_expr = _text("r." + _q(chosen["compound_id"]))
+    src_expr = _text("r." + _q(chosen["source"])) if "source" in chosen else "NULL"
     for column in spec.columns:
         src = chosen.get(column.name)
         if src is None or not column.numeric:
             continue
         typed = types[src].upper().startswith(NUMERIC_TYPES)
+        t_expr = "c.t" if spec.name == "vapor_pressure" and column.name != "t" else "NULL"
         rows = db.con.execute(
-            f"SELECT _row, {id_expr}, CAST({_q(src)} AS VARCHAR), {src_expr} FROM {raw_name} "
-            f"WHERE {_bad(_q(src), typed, raw.csv_decimal)} ORDER BY _row"
+            f"SELECT r._row, {id_expr}, CAST(r.{_q(src)} AS VARCHAR), {src_expr}, {t_expr} "
+            f"FROM {raw_name} r JOIN {spec.name} c ON c._row = r._row "
+            f"WHERE {_bad('r.' + _q(src), typed, raw.csv_decimal)} ORDER BY r._row"
         ).fetchall()
-        for row, compound_id, text, source in rows:
+        for row, compound_id, text, source, t in rows:
             info.cells_rejected += 1
             db.rejected_cells.add((spec.name, row, column.name))
             db.load_findings.append(
@@ -155,6 +157,7 @@ def _report_bad_cells(db, spec, raw, chosen, types, info) -> None:
                     compound_id=compound_id,
                     column=column.name,
                     observed=text,
+                    t=t,
                     row=row,
                     source=source,
                     suggestion=_unit_hint(text),

@@ -14,13 +14,18 @@ Method
     Phase order of a pure compound, Tt <= Tm < Tb < Tc (Poling et al.,
     ch. 2). To point at the wrong column, each of tm, tb and tc is tried
     with the usual temperature-scale slips (degC, degF, degR stored as K)
-    and with tb and tc swapped; a repair that restores the order and puts
-    tb/tc inside the Guldberg band is reported with its corrected value.
+    and then tb and tc swapped; a repair that restores the order, puts tb/tc
+    inside the Guldberg band and keeps tc above the compound's own
+    vapor-pressure points is reported with its corrected value (unit slips
+    are tried first: they are the commoner clerical error).
     Without a repair the finding names tb when tb >= tc and tm otherwise.
 
 Parameters
     guldberg_band
         [low, high] of tb/tc accepted for a repair (Guldberg's rule, tb/tc near 2/3).
+    guldberg_typical
+        Typical tb/tc; when several slips repair the order, the one whose
+        tb/tc lies nearest to it is proposed.
 
 Example finding
     ``tb = 341.87 K is not below tc = 234.45 K; tc is likely wrong
@@ -48,7 +53,10 @@ RULE = RuleInfo(
     stage="consistency",
     method="phase order Tm < Tb < Tc; repair by temperature-scale slips and Guldberg's rule",
     reference="Poling et al. 2001, ch. 2; Guldberg 1890",
-    params={"guldberg_band": "[low, high] of tb/tc accepted when proposing a repair"},
+    params={
+        "guldberg_band": "[low, high] of tb/tc accepted when proposing a repair",
+        "guldberg_typical": "typical tb/tc; among several repairs the one nearest to it wins",
+    },
 )
 
 
@@ -71,20 +79,29 @@ def check(db, params) -> list[Finding]:
     if not bad.any():
         return []
     c, t = c[bad].reset_index(drop=True), {k: v[bad] for k, v in t.items()}
+    # a repaired tc must lie above the compound's own vapor-pressure points
+    t_max = np.full(len(c), -np.inf)
+    if db.has("vapor_pressure"):
+        highest = dict(db.con.execute("SELECT compound_id, max(t) FROM vapor_pressure GROUP BY 1").fetchall())
+        t_max = np.array([highest.get(cid, -np.inf) for cid in c["compound_id"]], dtype=float)
     band = params["guldberg_band"]
     n = len(c)
     column = np.where(np.isfinite(t["tb"]) & np.isfinite(t["tc"]) & (t["tb"] >= t["tc"]), "tb", "tm").astype(object)
     fixed = np.full(n, np.nan)
     why = np.full(n, "", dtype=object)
-    found = np.zeros(n, dtype=bool)
+    best = np.full(n, np.inf)  # distance of the repaired tb/tc from the typical ratio
     for name in ("tc", "tb", "tm"):
         for what, convert in TEMPERATURE_SLIPS:
             trial = dict(t)
             trial[name] = convert(t[name])
-            ok = ~found & np.isfinite(t[name]) & _ordered(**trial) & _in_band(trial["tb"], trial["tc"], band)
-            column[ok], fixed[ok], why[ok] = name, trial[name][ok], what
-            found |= ok
-    swap = ~found & _ordered(t["tm"], t["tc"], t["tb"]) & _in_band(t["tc"], t["tb"], band)
+            ok = np.isfinite(t[name]) & _ordered(**trial) & _in_band(trial["tb"], trial["tc"], band)
+            ok &= ~np.isfinite(trial["tc"]) | (trial["tc"] >= t_max)
+            with np.errstate(invalid="ignore", divide="ignore"):
+                score = np.abs(np.log(trial["tb"] / trial["tc"] / params["guldberg_typical"]))
+            ok &= np.isfinite(score) & (score < best)  # no tb/tc to judge a repair by: propose none
+            column[ok], fixed[ok], why[ok], best[ok] = name, trial[name][ok], what, score[ok]
+    found = np.isfinite(best)
+    swap = ~found & _ordered(t["tm"], t["tc"], t["tb"]) & _in_band(t["tc"], t["tb"], band) & (t["tb"] >= t_max)
     column[swap], fixed[swap], why[swap] = "tb", t["tc"][swap], "tb and tc swapped"
     findings = []
     for i, rec in enumerate(c.itertuples(index=False)):

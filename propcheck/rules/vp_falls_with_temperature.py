@@ -16,11 +16,12 @@ Method
     Clapeyron equation, dp/dT = dH_vap / (T dV_vap) > 0 below Tc. For each
     adjacent pair (T1 < T2) a drop p1 - p2 > k sqrt(u1^2 + u2^2) is a
     finding, where u is the stated standard uncertainty of p or, when none
-    is stated, ``default_relative_uncertainty`` x p. The point to blame is
-    the one out of line with its other neighbour: the earlier point when the
-    later one still exceeds the point before the pair, else the later one.
-    The expected value interpolates ln p linearly in 1/T between the blamed
-    point's neighbours (Clausius-Clapeyron), and a factor between observed
+    is stated, ``default_relative_uncertainty`` x p. Of the two points, the
+    one farther from the straight line of ln p against 1/T
+    (Clausius-Clapeyron) through the neighbours around the pair is blamed
+    (or, at an end of the series, the two beyond the pair); that line gives
+    the expected value. With too few neighbours, the earlier point is blamed
+    when the later one still exceeds the point before the pair. A factor between observed
     and expected that matches a unit (1000, 1e5, 1e6, 101325, 133.322, 6894.76)
     is named in ``suggestion``. Two points less than ``same_t_tolerance``
     apart that differ by more than ``same_t_relative_spread`` give a warning.
@@ -79,13 +80,15 @@ WITH pts AS (
     SELECT *,
         lag(_row) OVER w AS row_a, lag(t) OVER w AS t_a, lag(p) OVER w AS p_a, lag(u) OVER w AS u_a,
         lag(source) OVER w AS source_a,
-        lag(t, 2) OVER w AS t_before, lag(p, 2) OVER w AS p_before,
-        lead(t) OVER w AS t_after, lead(p) OVER w AS p_after
+        lag(t, 2) OVER w AS t_l, lag(p, 2) OVER w AS p_l,
+        lag(t, 3) OVER w AS t_l2, lag(p, 3) OVER w AS p_l2,
+        lead(t) OVER w AS t_r, lead(p) OVER w AS p_r,
+        lead(t, 2) OVER w AS t_r2, lead(p, 2) OVER w AS p_r2
     FROM pts
     WINDOW w AS (PARTITION BY compound_id ORDER BY t, _row)
 )
 SELECT compound_id, row_a, t_a, p_a, source_a, _row AS row_b, t AS t_b, p AS p_b, source AS source_b,
-       t_before, p_before, t_after, p_after,
+       t_l, p_l, t_l2, p_l2, t_r, p_r, t_r2, p_r2,
        ? * sqrt(u * u + u_a * u_a) AS allowed,
        t - t_a < ? AS same_t
 FROM seq
@@ -118,19 +121,37 @@ def check(db, params) -> list[Finding]:
     return findings
 
 
+def _predict(d: pd.DataFrame, t: np.ndarray, *pairs) -> np.ndarray:
+    """ln-p/(1/T) line through the first pair of neighbours present, evaluated at t."""
+    out = np.full(len(d), np.nan)
+    for first, second in pairs:
+        t1, p1 = d[f"t_{first}"].to_numpy(float), d[f"p_{first}"].to_numpy(float)
+        t2, p2 = d[f"t_{second}"].to_numpy(float), d[f"p_{second}"].to_numpy(float)
+        guess = _loglin(t1, p1, t2, p2, t)
+        out = np.where(np.isnan(out) & np.isfinite(guess), guess, out)
+    return out
+
+
 def _drops(d: pd.DataFrame) -> list[Finding]:
     if d.empty:
         return []
-    has_before = d["p_before"].notna()
-    blame_a = (has_before & (d["p_b"] >= d["p_before"])) | (~has_before & d["p_after"].notna() & (d["p_a"] > d["p_after"]))
-    t_obs = np.where(blame_a, d["t_a"], d["t_b"])
-    p_obs = np.where(blame_a, d["p_a"], d["p_b"])
-    # expected from the blamed point's other neighbours
-    t_lo = np.where(blame_a, d["t_before"], d["t_a"])
-    p_lo = np.where(blame_a, d["p_before"], d["p_a"])
-    t_hi = np.where(blame_a, d["t_b"], d["t_after"])
-    p_hi = np.where(blame_a, d["p_b"], d["p_after"])
-    expected = _loglin(t_lo.astype(float), p_lo.astype(float), t_hi.astype(float), p_hi.astype(float), t_obs.astype(float))
+    d = d.reset_index(drop=True)
+    t_a, p_a = d["t_a"].to_numpy(float), d["p_a"].to_numpy(float)
+    t_b, p_b = d["t_b"].to_numpy(float), d["p_b"].to_numpy(float)
+    # Each member of the pair is judged against neighbours that exclude the other:
+    # the points around the pair (l, r), else the two beyond it on one side.
+    pred_a = _predict(d, t_a, ("l", "r"), ("r", "r2"), ("l2", "l"))
+    pred_b = _predict(d, t_b, ("l", "r"), ("l2", "l"), ("r", "r2"))
+    with np.errstate(all="ignore"):
+        dev_a, dev_b = np.abs(np.log(p_a / pred_a)), np.abs(np.log(p_b / pred_b))
+    judged = np.isfinite(dev_a) & np.isfinite(dev_b)
+    # too few neighbours: blame a when b still lies above the point before a
+    p_l, p_r = d["p_l"].to_numpy(float), d["p_r"].to_numpy(float)
+    fallback = np.where(np.isfinite(p_l), p_b >= p_l, np.isfinite(p_r) & (p_a > p_r))
+    blame_a = pd.Series(np.where(judged, dev_a > dev_b, fallback))
+    t_obs = np.where(blame_a, t_a, t_b)
+    p_obs = np.where(blame_a, p_a, p_b)
+    expected = np.where(blame_a, pred_a, pred_b)
     text, corrected = pressure_slip(p_obs, expected)
     findings = []
     seen = set()
