@@ -7,7 +7,7 @@ from propcheck.report.data import ReportData
 __all__ = ["render_terminal"]
 
 
-def render_terminal(data: ReportData, out_dir: str | None = None, top: int = 8) -> str:
+def render_terminal(data: ReportData, out_dir: str | None = None, top: int = 15) -> str:
     sev = data.by_severity
     rows = ", ".join(f"{t.table} {t.rows_read} ({t.rows_rejected} rejected)" for t in data.tables)
     lines = [f"propcheck: {data.meta['source']}: rows read: {rows}"]

@@ -1,0 +1,70 @@
+"""propcheck rules / explain / check options."""
+
+from __future__ import annotations
+
+import json
+
+from propcheck.rules.registry import all_rules
+from tests.conftest import SAMPLE_DB, write_db
+
+
+def test_rules_lists_every_rule(run_cli):
+    result = run_cli("rules")
+    assert result.code == 0
+    listed = [line.split()[0] for line in result.out.splitlines()]
+    assert listed == list(all_rules())
+
+
+def test_rules_shows_pack_changes_and_custom_rules(run_cli, tmp_path):
+    pack = tmp_path / "pack.toml"
+    pack.write_text(
+        '[rules.cas-malformed]\nenabled = false\n[custom.pc-below-one-bar]\ntitle = "pc below 1 bar"\n'
+        'sql = "SELECT compound_id FROM compounds WHERE pc < 1e5"\n'
+    )
+    rows = {r["id"]: r for r in json.loads(run_cli("rules", "--rules", pack, "--json").out)}
+    assert rows["cas-malformed"]["enabled"] is False
+    assert rows["pc-below-one-bar"]["stage"] == "custom"
+
+
+def test_explain_prints_method_and_parameters(run_cli):
+    result = run_cli("explain", "vp-falls-with-temperature")
+    assert result.code == 0
+    assert "Clapeyron" in result.out and "default_relative_uncertainty = 0.005" in result.out
+
+
+def test_explain_json_reflects_pack(run_cli, tmp_path):
+    pack = tmp_path / "pack.toml"
+    pack.write_text("[rules.vp-beyond-critical-point]\nt_margin = 2.0\n")
+    doc = json.loads(run_cli("explain", "vp-beyond-critical-point", "--rules", pack, "--json").out)
+    assert doc["params"]["t_margin"] == 2.0
+
+
+def test_fail_on_levels(run_cli, tmp_path):
+    # water Tc 647.096 K (IAPWS R2-83) with tm 700 K: one error finding
+    folder = write_db(tmp_path / "db", [{"compound_id": "W", "name": "water", "tc": 647.096, "tm": 700.0}])
+    assert run_cli("check", folder, "--out", tmp_path / "o1", "--quiet").code == 1
+    assert run_cli("check", folder, "--out", tmp_path / "o2", "--fail-on", "none", "--quiet").code == 0
+    pack = tmp_path / "pack.toml"
+    pack.write_text('[rules.phase-order-violated]\nseverity = "warning"\n')
+    assert run_cli("check", folder, "--out", tmp_path / "o3", "--rules", pack, "--quiet").code == 0
+    assert run_cli("check", folder, "--out", tmp_path / "o4", "--rules", pack, "--fail-on", "warning", "--quiet").code == 1
+
+
+def test_clean_database_exits_0(run_cli, tmp_path):
+    # n-hexane: IUPAC Tc 507.6 K, Pc 3.025 MPa; CRC Tb 341.87 K, Tm 177.88 K; CAS 110-54-3
+    folder = write_db(tmp_path / "db", [{"compound_id": "C6", "name": "n-hexane", "cas": "110-54-3",
+                                         "tc": 507.6, "pc": 3025000.0, "tb": 341.87, "tm": 177.88}])
+    result = run_cli("check", folder, "--out", tmp_path / "out")
+    assert result.code == 0 and "PASS" in result.out
+
+
+def test_terminal_summary_on_sample_db(run_cli, tmp_path):
+    result = run_cli("check", SAMPLE_DB, "--out", tmp_path / "out")
+    assert result.code == 1
+    assert "FAIL" in result.out and "vp-falls-with-temperature" in result.out
+    assert result.err == ""
+
+
+def test_quiet_prints_nothing(run_cli, tmp_path):
+    result = run_cli("check", SAMPLE_DB, "--out", tmp_path / "out", "--quiet")
+    assert result.code == 1 and result.out == "" and result.err == ""
