@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from pathlib import Path
+
 from propcheck.report.data import ReportData
 
 __all__ = ["render_terminal"]
@@ -19,7 +21,7 @@ def render_terminal(data: ReportData, out_dir: str | None = None, top: int = 15)
     if len(data.by_rule) > top:
         lines.append(f"  ... and {len(data.by_rule) - top} more rules (see summary.md)")
     if out_dir:
-        lines.append(f"report: {out_dir}/report.html (findings.csv, findings.json, summary.md)")
+        lines.append(f"report: {Path(out_dir) / 'report.html'} (findings.csv, findings.json, summary.md beside it)")
     verdict = "FAIL" if data.exit_code else "PASS"
     lines.append(f"{verdict}: fail-on {data.fail_on}")
     return "\n".join(lines)
