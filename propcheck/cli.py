@@ -14,6 +14,7 @@ import sys
 import traceback
 
 from propcheck import __version__
+from propcheck.cli_ci import add_check_options, add_commands, cmd_baseline, cmd_check, cmd_compare
 from propcheck.errors import EXIT_INTERNAL, EXIT_USAGE, PropcheckError, UsageError
 
 __all__ = ["main"]
@@ -49,13 +50,14 @@ def _parser() -> argparse.ArgumentParser:
 
     check = sub.add_parser("check", help="check a database and write the report", epilog=EPILOG,
                            formatter_class=argparse.RawDescriptionHelpFormatter)
-    check.add_argument("source", help="folder of .csv/.parquet files, or a .duckdb file")
+    check.add_argument("source", help="folder of .csv/.parquet files, a .duckdb/.sqlite/.db/.xlsx file, or a postgresql:// URL")
     check.add_argument("--out", default="propcheck-report", help="folder for the report files (default: %(default)s)")
     check.add_argument("--config", help="mapping file (TOML); default: propcheck.toml beside the data, if any")
     check.add_argument("--rules", help="rule pack (TOML) overriding rules/default.toml")
     check.add_argument("--fail-on", choices=("error", "warning", "info", "none"), default="error",
                        help="lowest severity that makes the run fail with exit 1 (default: %(default)s)")
     check.add_argument("--quiet", action="store_true", help="print nothing but errors")
+    add_check_options(check)
 
     rules = sub.add_parser("rules", help="list every rule")
     rules.add_argument("--rules", help="rule pack to apply (shows its severities and custom rules)")
@@ -65,6 +67,12 @@ def _parser() -> argparse.ArgumentParser:
     explain.add_argument("rule", help="rule id, e.g. vp-falls-with-temperature")
     explain.add_argument("--rules", help="rule pack whose parameters to show")
     explain.add_argument("--json", action="store_true", help="machine-readable output")
+
+    init = sub.add_parser("init", help="propose a mapping file for a database with unknown names and units")
+    init.add_argument("source", help="folder, .duckdb/.sqlite/.db/.xlsx file, or postgresql:// URL")
+    init.add_argument("--out", default="propcheck.toml", help="mapping file to write (default: %(default)s)")
+    init.add_argument("--force", action="store_true", help="overwrite --out if it exists")
+    add_commands(sub)
     return parser
 
 
@@ -75,16 +83,24 @@ def _progress(quiet: bool):
 
 
 def _cmd_check(args) -> int:
-    from propcheck.pipeline import run_check
-    from propcheck.report import build_report_data, write_reports
-    from propcheck.report.terminal import render_terminal
+    return cmd_check(args)  # propcheck/cli_ci.py: baseline, waivers, history, progress bar
 
-    result = run_check(args.source, args.config, args.rules, progress=_progress(args.quiet))
-    data = build_report_data(result, fail_on=args.fail_on)
-    write_reports(data, args.out)
-    if not args.quiet:
-        print(render_terminal(data, args.out))
-    return data.exit_code
+
+def _cmd_init(args) -> int:
+    from pathlib import Path
+
+    from propcheck.load.propose import propose_mapping, render_mapping
+
+    out = Path(args.out)
+    if out.exists() and not args.force:
+        raise UsageError("file exists; give another --out or --force", file=str(out), option="--out")
+    proposals = propose_mapping(args.source)
+    if not proposals:
+        raise UsageError("no table looks like compounds (an id and a name column); write the mapping by hand",
+                         file=args.source if "://" not in args.source else None)
+    out.write_text(render_mapping(args.source, proposals), encoding="utf-8")
+    print(f"propcheck: wrote {out}; review every line, then run: propcheck check SOURCE --config {out}")
+    return 0
 
 
 def _cmd_rules(args) -> int:
@@ -152,7 +168,8 @@ def main(argv: list[str] | None = None) -> int:
         if args.command is None:
             _parser().print_help()
             return EXIT_USAGE
-        return {"check": _cmd_check, "rules": _cmd_rules, "explain": _cmd_explain}[args.command](args)
+        return {"check": _cmd_check, "rules": _cmd_rules, "explain": _cmd_explain, "init": _cmd_init,
+                "baseline": cmd_baseline, "compare": cmd_compare}[args.command](args)
     except PropcheckError as exc:
         print(f"propcheck: error: {exc}", file=sys.stderr)
         return exc.exit_code

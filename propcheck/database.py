@@ -43,6 +43,8 @@ class Database:
     # (table, row, column) of cells the load stage already reported
     rejected_cells: set[tuple[str, int, str]] = field(default_factory=set)
     notes: list[str] = field(default_factory=list)
+    # results shared by several rules within one run (e.g. fitted curves)
+    cache: dict = field(default_factory=dict)
 
     def has(self, table: str) -> bool:
         return table in self.tables

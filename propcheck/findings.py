@@ -52,6 +52,7 @@ class Finding:
     row: int | None = None
     source: str | None = None
     finding_id: str | None = None
+    corrected: float | None = None  # the diagnosed repair of the cell, for corrections.csv
 
 
 FIELDS = (
@@ -70,6 +71,7 @@ FIELDS = (
     "message",
     "row",
     "source",
+    "corrected",
 )
 assert set(FIELDS) == {f.name for f in fields(Finding)}
 

@@ -9,8 +9,11 @@ from typing import Callable
 import pandas as pd
 
 from propcheck.database import Database
+from propcheck.diagnose import annotate_findings
 from propcheck.findings import assign_ids, sort_findings, to_frame
+from propcheck.fingerprint import fingerprint
 from propcheck.load import load_database
+from propcheck.load.sources import display_source
 from propcheck.rules.custom import run_custom_rule
 from propcheck.rules.pack import Pack, load_pack
 from propcheck.rules.registry import all_rules
@@ -29,6 +32,7 @@ class RunResult:
     started: float
     seconds: float
     stage_seconds: dict[str, float] = field(default_factory=dict)
+    fingerprint: str = ""  # hash of the canonical tables as loaded (propcheck.fingerprint)
 
 
 def _noop(message: str) -> None:
@@ -53,13 +57,15 @@ def run_check(
         clock = now
 
     pack = load_pack(rules_path)
-    progress("loading " + source)
+    progress("loading " + display_source(source))
     db = load_database(source, mapping_path)
+    data_fingerprint = fingerprint(db)
     lap("load")
     frames = [to_frame(f for f in db.load_findings if pack.enabled(f.rule))]
     progress("schema checks")
     frames.append(to_frame(run_schema_stage(db, pack)))
     lap("schema")
+    db.cache["pack"] = pack  # rules may consult a sibling rule's settings
     for rule in all_rules().values():
         if rule.check is None or not pack.enabled(rule.id):
             continue
@@ -72,10 +78,11 @@ def run_check(
             frames.append(to_frame(run_custom_rule(db, custom)))
     lap("custom")
     findings = pd.concat([f for f in frames if not f.empty] or [to_frame(None)], ignore_index=True)
+    findings = annotate_findings(db, findings)
     findings = _apply_severity(findings, pack)
     findings = sort_findings(assign_ids(findings))
     return RunResult(db=db, pack=pack, findings=findings, started=started,
-                     seconds=sum(stages.values()), stage_seconds=stages)
+                     seconds=sum(stages.values()), stage_seconds=stages, fingerprint=data_fingerprint)
 
 
 def _apply_severity(findings: pd.DataFrame, pack: Pack) -> pd.DataFrame:

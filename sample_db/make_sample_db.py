@@ -190,15 +190,16 @@ def seed_problems(comps, points):
         return [p for p in points if p["compound_id"] == cid]
 
     def add(slug, kind, table, cid, column, detect, true=None, seeded=None, t=None,
-            note=None):
+            note=None, severity=None):
         probs.append({"id": slug, "kind": kind, "table": table, "compound_id": cid,
                       "column": column, "t": t, "true_value": true, "seeded_value": seeded,
-                      "detectable_by": detect, "note": note})
+                      "detectable_by": detect, "note": note, "severity": severity})
 
-    def change(name, column, new, slug, kind, detect, true_as=float, note=None):
+    def change(name, column, new, slug, kind, detect, true_as=float, note=None, severity=None):
         c = by_name[name]
         true, c[column] = true_as(c[column]), new
-        add(slug, kind, "compounds", c["compound_id"], column, detect, true, new, note=note)
+        add(slug, kind, "compounds", c["compound_id"], column, detect, true, new, note=note,
+            severity=severity)
 
     # 1 non-numeric cell in compounds: unit text inside the number
     change("n-nonane", "tc", by_name["n-nonane"]["tc"] + " K", "tc-unit-text",
@@ -272,12 +273,12 @@ def seed_problems(comps, points):
     add("id-missing", "empty compound_id", "compounds", "", "compound_id", "schema",
         own, "")
 
-    # ---- problems the first rule set cannot see ("later") ----
+    # ---- problems for the compound-constant rules ("constants"), then deeper checks ("later") ----
     om = float(by_name["methyl acetate"]["omega"])
     change("methyl acetate", "omega", fmt(round(om / 10, 5)), "omega-tenfold",
-           "acentric factor 10x too small", "later")
+           "acentric factor 10x too small", "constants")
     change("benzene", "tc", "526.05", "tc-transposed",
-           "transposed digits in tc (562.05 -> 526.05)", "later",
+           "transposed digits in tc (562.05 -> 526.05)", "constants",
            note="its points stop at 520 K, so no point lies above the wrong tc")
     cid = by_name["n-heptane"]["compound_id"]
     for p in pts(cid):
@@ -287,7 +288,8 @@ def seed_problems(comps, points):
         cid, "p", "later", note="every p of the compound is 1000x too low")
     assert cas_check_ok("108-21-4")
     change("propyl acetate", "cas", "108-21-4", "cas-other-compound",
-           "valid CAS of another compound (isopropyl acetate)", "later", str)
+           "valid CAS of another compound (isopropyl acetate)", "constants", str,
+           severity="warning")  # an identity mismatch is a warning (cas-names-other-compound)
     return probs
 
 
@@ -310,7 +312,8 @@ def write_all(comps, points, probs):
             w.writeheader()
             w.writerows(rows)
     lines = ["# Problems seeded into delivery BDS-2026-11 by make_sample_db.py.",
-             "# detectable_by: schema | physics | later (deeper checks, not the first rules)."]
+             "# detectable_by: schema | physics | constants (compound-constant rules) | later (deeper checks).",
+             "# severity: the least severity the finding must have (default error)."]
     for pr in probs:
         lines.append("\n[[problem]]")
         for k, v in pr.items():

@@ -40,14 +40,21 @@ def test_explain_json_reflects_pack(run_cli, tmp_path):
 
 
 def test_fail_on_levels(run_cli, tmp_path):
-    # water Tc 647.096 K (IAPWS R2-83) with tm 700 K: one error finding
-    folder = write_db(tmp_path / "db", [{"compound_id": "W", "name": "water", "tc": 647.096, "tm": 700.0}])
-    assert run_cli("check", folder, "--out", tmp_path / "o1", "--quiet").code == 1
-    assert run_cli("check", folder, "--out", tmp_path / "o2", "--fail-on", "none", "--quiet").code == 0
-    pack = tmp_path / "pack.toml"
-    pack.write_text('[rules.phase-order-violated]\nseverity = "warning"\n')
-    assert run_cli("check", folder, "--out", tmp_path / "o3", "--rules", pack, "--quiet").code == 0
-    assert run_cli("check", folder, "--out", tmp_path / "o4", "--rules", pack, "--fail-on", "warning", "--quiet").code == 1
+    # n-hexane with published constants (IUPAC Tc 507.6 K, Pc 3.025 MPa; CRC Tb 341.87 K, Tm 177.88 K;
+    # CAS 110-54-3) and one custom rule that always fires, at the severity the pack gives it
+    folder = write_db(tmp_path / "db", [{"compound_id": "C6", "name": "n-hexane", "cas": "110-54-3", "formula": "C6H14",
+                                         "tc": 507.6, "pc": 3025000.0, "tb": 341.87, "tm": 177.88}])
+
+    def pack(severity):
+        path = tmp_path / f"{severity}.toml"
+        path.write_text(f'[custom.always]\ntitle = "always"\nseverity = "{severity}"\n'
+                        "sql = \"SELECT compound_id FROM compounds\"\n")
+        return path
+
+    assert run_cli("check", folder, "--out", tmp_path / "o1", "--rules", pack("error"), "--quiet").code == 1
+    assert run_cli("check", folder, "--out", tmp_path / "o2", "--rules", pack("error"), "--fail-on", "none", "--quiet").code == 0
+    assert run_cli("check", folder, "--out", tmp_path / "o3", "--rules", pack("warning"), "--quiet").code == 0
+    assert run_cli("check", folder, "--out", tmp_path / "o4", "--rules", pack("warning"), "--fail-on", "warning", "--quiet").code == 1
 
 
 def test_clean_database_exits_0(run_cli, tmp_path):
@@ -61,7 +68,7 @@ def test_clean_database_exits_0(run_cli, tmp_path):
 def test_terminal_summary_on_sample_db(run_cli, tmp_path):
     result = run_cli("check", SAMPLE_DB, "--out", tmp_path / "out")
     assert result.code == 1
-    assert "FAIL" in result.out and "vp-falls-with-temperature" in result.out
+    assert "FAIL" in result.out and "findings:" in result.out and "cell-not-numeric" in result.out
     assert result.err == ""
 
 

@@ -11,18 +11,18 @@ from propcheck.database import Database
 from propcheck.errors import UsageError
 from propcheck.load.canonicalize import canonicalize
 from propcheck.load.mapping import read_mapping
-from propcheck.load.sources import open_source
+from propcheck.load.sources import display_source, open_source
 
 __all__ = ["load_database"]
 
 
 def load_database(source: str, mapping_path: str | None = None) -> Database:
-    """Read ``source`` (folder or DuckDB file) into a new in-memory database."""
-    data_dir = Path(source) if Path(source).is_dir() else None
+    """Read ``source`` (folder, DuckDB/SQLite/Excel file, PostgreSQL URL) into a new in-memory database."""
+    data_dir = Path(source) if not source.startswith(("postgresql://", "postgres://")) and Path(source).is_dir() else None
     mapping = read_mapping(mapping_path, data_dir)
     con = duckdb.connect(":memory:")
     kind, raw_tables = open_source(con, source, mapping)
-    db = Database(con=con, source=source, kind=kind)
+    db = Database(con=con, source=display_source(source), kind=kind)
     if mapping.path:
         db.notes.append(f"mapping file: {mapping.path}")
     for spec in TABLES.values():
@@ -33,12 +33,28 @@ def load_database(source: str, mapping_path: str | None = None) -> Database:
                 found = ", ".join(sorted(raw_tables)) or "none"
                 raise UsageError(
                     f"no {wanted!r} table (expected {wanted}.csv, {wanted}.parquet or a table of that name; found: {found})",
-                    file=source,
+                    file=display_source(source),
                     table=spec.name,
                 )
             continue
         canonicalize(db, spec, raw, mapping)
+        _release(con, raw)
     used = {mapping.table(name).source_table.lower() for name in db.tables}
     for name in sorted(set(raw_tables) - used):
         db.notes.append(f"table {name!r} ({raw_tables[name].origin}) is not a canonical table; not loaded")
     return db
+
+
+def _release(con, raw) -> None:
+    """Close a driver connection once its table has been read (SQLite, PostgreSQL)."""
+    if raw.keep is None:
+        return
+    con.unregister(raw.relation.strip('"'))
+    for part in raw.keep if isinstance(raw.keep, tuple) else (raw.keep,):
+        close = getattr(part, "close", None)
+        if close is not None:
+            try:
+                close()
+            except Exception:  # closing a finished read-only session cannot lose data
+                pass
+    raw.keep = None

@@ -1,29 +1,27 @@
-"""Find the source's tables: a folder of CSV/Parquet files or a DuckDB file.
+"""Find the source's tables: a folder of CSV/Parquet files, a DuckDB, SQLite or Excel file, a PostgreSQL URL.
 
 Each reader returns, per source table name (lower case), a DuckDB relation
 expression to select from and a description of its origin. Sources are only
 ever read: CSV and Parquet through DuckDB's readers, a DuckDB file through a
-``READ_ONLY`` attachment.
+``READ_ONLY`` attachment; SQLite (``sqlite_source``), Excel (``excel_source``)
+and PostgreSQL (``postgres_source``) arrive as Arrow data registered with the
+connection.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
 from pathlib import Path
+from typing import Any
 
 import duckdb
 
 from propcheck.errors import UsageError
 from propcheck.load.mapping import Mapping
 
-__all__ = ["RawTable", "open_source"]
+__all__ = ["RawTable", "display_source", "open_source"]
 
-NOT_YET = {
-    ".sqlite": "SQLite",
-    ".db": "SQLite",
-    ".xlsx": "Excel",
-    ".xls": "Excel",
-}
+SQLITE_SUFFIXES = (".sqlite", ".sqlite3", ".db")
 
 
 @dataclass
@@ -34,16 +32,32 @@ class RawTable:
     relation: str
     origin: str
     csv_decimal: str = "."
+    keep: Any = None  # driver connection / Arrow data that must live while the relation is read
+
+
+def display_source(source: str) -> str:
+    """The source as it may be printed: a PostgreSQL URL without its password."""
+    from propcheck.load.postgres_source import mask_url
+
+    return mask_url(source)
 
 
 def _sql_str(text: str) -> str:
     return "'" + text.replace("'", "''") + "'"
 
 
-def open_source(con: duckdb.DuckDBPyConnection, source: str, mapping: Mapping) -> tuple[str, dict[str, RawTable]]:
-    """Return the source kind and its tables, keyed by lower-case table name."""
+def open_source(
+    con: duckdb.DuckDBPyConnection, source: str, mapping: Mapping, wanted: set[str] | None = None
+) -> tuple[str, dict[str, RawTable]]:
+    """Return the source kind and its tables, keyed by lower-case table name.
+
+    For SQLite, Excel and PostgreSQL only the tables in ``wanted`` (default:
+    those the mapping reads) are read; the others are listed.
+    """
     if source.startswith(("postgresql://", "postgres://")):
-        raise UsageError("PostgreSQL sources are not supported in this version", file=source)
+        from propcheck.load.postgres_source import postgres_tables
+
+        return "postgresql", postgres_tables(con, source, mapping, wanted)
     path = Path(source)
     if not path.exists():
         raise UsageError("no such file or folder", file=source)
@@ -52,10 +66,20 @@ def open_source(con: duckdb.DuckDBPyConnection, source: str, mapping: Mapping) -
     suffix = path.suffix.lower()
     if suffix == ".duckdb":
         return "duckdb", _duckdb_tables(con, path)
-    if suffix in NOT_YET:
-        raise UsageError(f"{NOT_YET[suffix]} sources are not supported in this version", file=source)
+    if suffix in SQLITE_SUFFIXES:
+        from propcheck.load.sqlite_source import sqlite_tables
+
+        return "sqlite", sqlite_tables(con, path, mapping, wanted)
+    if suffix in (".xlsx", ".xlsm"):
+        from propcheck.load.excel_source import excel_tables
+
+        return "excel", excel_tables(con, path, mapping, wanted)
+    if suffix == ".xls":
+        raise UsageError("the old binary .xls format is not read; save the workbook as .xlsx", file=source)
     raise UsageError(
-        "unknown source format (give a folder of .csv/.parquet files or a .duckdb file)", file=source
+        "unknown source format (give a folder of .csv/.parquet files, a .duckdb, .sqlite/.db or .xlsx file, "
+        "or a postgresql:// URL)",
+        file=source,
     )
 
 

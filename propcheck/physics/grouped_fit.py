@@ -100,6 +100,7 @@ def robust_grouped_fit(
     min_scale: float | np.ndarray = 1e-4,
     tuning: float = 4.685,
     iterations: int = 12,
+    initial_weight: np.ndarray | None = None,
 ) -> GroupFit:
     """Iteratively reweighted least squares with Tukey's biweight, per group.
 
@@ -110,14 +111,18 @@ def robust_grouped_fit(
         rounding noise into outliers.
     tuning : float
         Biweight constant c; 4.685 gives 95 % efficiency for normal errors.
+    initial_weight : ndarray (n,), optional
+        Weights of the starting fit (0 for rows known to be gross blunders).
 
     References
     ----------
     .. [1] A. E. Beaton, J. W. Tukey, Technometrics 16, 147 (1974) (biweight).
     .. [2] P. J. Huber, E. M. Ronchetti, Robust Statistics, 2nd ed., Wiley (2009), ch. 7.
     """
-    w = np.ones(len(y))
+    w = np.ones(len(y)) if initial_weight is None else initial_weight
     beta = grouped_lstsq(x, y, group, n_groups, w)
+    if initial_weight is not None:  # a group left singular by the start weights starts from all rows
+        beta = np.where(np.isnan(beta), grouped_lstsq(x, y, group, n_groups), beta)
     scale = np.full(n_groups, np.nan)
     for _ in range(iterations):
         resid = y - np.einsum("nk,nk->n", x, beta[group])

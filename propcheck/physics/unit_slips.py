@@ -11,7 +11,7 @@ from __future__ import annotations
 
 import numpy as np
 
-__all__ = ["PRESSURE_SLIPS", "TEMPERATURE_SLIPS", "pressure_slip", "temperature_slip"]
+__all__ = ["PRESSURE_SLIPS", "TEMPERATURE_SLIPS", "pressure_slip", "temperature_slip", "transposed_digit_variants"]
 
 # observed/expected ratio -> what happened. Factors exact by definition (SI
 # brochure 2019; 1 atm = 101325 Pa; mmHg 133.322387415 Pa; psi 6894.757 Pa).
@@ -106,3 +106,26 @@ def temperature_slip(observed, expected, abs_tol: float = 3.0):
         text[hit] = f"{what}?"
         corrected = np.where(hit, fixed, corrected)
     return text, corrected
+
+
+def transposed_digit_variants(value: float) -> list[float]:
+    """Values obtained by swapping two adjacent digits of ``value`` as written.
+
+    Examples
+    --------
+    Benzene Tc 562.05 K (IUPAC) typed as 526.05:
+
+    >>> 562.05 in transposed_digit_variants(526.05)
+    True
+    """
+    text = format(float(value), ".10g")
+    out = []
+    for i in range(len(text) - 1):
+        a, b = text[i], text[i + 1]
+        if a.isdigit() and b.isdigit() and a != b:
+            swapped = text[:i] + b + a + text[i + 2:]
+            try:
+                out.append(float(swapped))
+            except ValueError:
+                continue
+    return out

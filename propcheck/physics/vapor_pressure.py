@@ -87,7 +87,8 @@ def wagner_25_5(t, tc, pc, a, b, c, d):
     .. [1] D. Ambrose, J. Chem. Thermodyn. 18, 45 (1986); Poling et al. (2001) eq. 7-3.3.
     """
     tau = _tau(t, tc)
-    return pc * np.exp((a * tau + b * tau**1.5 + c * tau**2.5 + d * tau**5) * tc / np.asarray(t, dtype=float))
+    with np.errstate(invalid="ignore"):  # NaN above tc, where the form has no meaning
+        return pc * np.exp((a * tau + b * tau**1.5 + c * tau**2.5 + d * tau**5) * tc / np.asarray(t, dtype=float))
 
 
 def wagner_3_6(t, tc, pc, a, b, c, d):
@@ -98,7 +99,8 @@ def wagner_3_6(t, tc, pc, a, b, c, d):
     .. [1] W. Wagner, Cryogenics 13, 470 (1973); J. McGarry, Ind. Eng. Chem. Process Des. Dev. 22, 313 (1983).
     """
     tau = _tau(t, tc)
-    return pc * np.exp((a * tau + b * tau**1.5 + c * tau**3 + d * tau**6) * tc / np.asarray(t, dtype=float))
+    with np.errstate(invalid="ignore"):  # NaN above tc, where the form has no meaning
+        return pc * np.exp((a * tau + b * tau**1.5 + c * tau**3 + d * tau**6) * tc / np.asarray(t, dtype=float))
 
 
 def lee_kesler_psat(t, tc, pc, omega):

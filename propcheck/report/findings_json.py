@@ -22,9 +22,10 @@ def _clean(value):
 
 
 def render_json(data: ReportData) -> str:
+    extra = [c for c in ("status", "waiver") if c in data.findings.columns]
     records = [
-        {name: _clean(value) for name, value in zip(FIELDS, row)}
-        for row in data.findings[list(FIELDS)].itertuples(index=False)
+        {name: _clean(value) for name, value in zip(list(FIELDS) + extra, row)}
+        for row in data.findings[list(FIELDS) + extra].itertuples(index=False)
     ]
     doc = {
         "format_version": FORMAT_VERSION,
@@ -32,6 +33,14 @@ def render_json(data: ReportData) -> str:
         "exit_code": data.exit_code,
         "counts": data.by_severity,
         "tables": [t.__dict__ for t in data.tables],
+        "triage": {
+            "baseline": data.triage.baseline_path,
+            "waivers": data.triage.waiver_path,
+            "counts": data.triage.counts,
+            "resolved": data.triage.resolved,
+            "expired_waivers": [w.describe() for w in data.triage.expired],
+        },
+        "fail_reasons": data.fail_reasons,
         "findings": records,
     }
     return json.dumps(doc, indent=2, ensure_ascii=False) + "\n"

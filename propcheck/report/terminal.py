@@ -21,7 +21,13 @@ def render_terminal(data: ReportData, out_dir: str | None = None, top: int = 15)
     if len(data.by_rule) > top:
         lines.append(f"  ... and {len(data.by_rule) - top} more rules (see summary.md)")
     if out_dir:
-        lines.append(f"report: {Path(out_dir) / 'report.html'} (findings.csv, findings.json, summary.md beside it)")
+        lines.append(f"report: {Path(out_dir) / 'report.html'} (findings.csv, findings.json, summary.md, junit.xml beside it)")
+    if data.triage.active:
+        c = data.triage.counts
+        lines.append(f"triage: {c.get('new', 0)} new, {c.get('baselined', 0)} baselined, {c.get('waived', 0)} waived, "
+                     f"{len(data.triage.resolved)} resolved since the baseline")
+    for w in data.triage.expired:
+        lines.append(f"EXPIRED waiver: {w.describe()}")
     verdict = "FAIL" if data.exit_code else "PASS"
     lines.append(f"{verdict}: fail-on {data.fail_on}")
     return "\n".join(lines)

@@ -8,9 +8,11 @@ from pathlib import Path
 
 from propcheck.errors import UsageError
 from propcheck.report.data import ReportData
+from propcheck.report.corrections_csv import render_corrections
 from propcheck.report.findings_csv import render_csv
 from propcheck.report.findings_json import render_json
 from propcheck.report.html import render_html
+from propcheck.report.junit import render_junit
 from propcheck.report.summary_md import render_summary
 
 __all__ = ["atomic_write", "write_reports"]
@@ -20,6 +22,8 @@ WRITERS = {
     "findings.json": render_json,
     "summary.md": render_summary,
     "report.html": render_html,
+    "corrections.csv": render_corrections,
+    "junit.xml": render_junit,
 }
 
 

@@ -141,6 +141,8 @@ def _same_kind(default: Any, value: Any) -> bool:
     if isinstance(default, (int, float)):
         return isinstance(value, (int, float))
     if isinstance(default, list):
+        if not default:  # an empty default list takes a list of text of any length
+            return isinstance(value, list) and all(isinstance(v, str) for v in value)
         return isinstance(value, list) and len(value) == len(default) and all(
             _same_kind(d, v) for d, v in zip(default, value)
         )

@@ -123,6 +123,7 @@ def check(db, params) -> list[Finding]:
                 rule=RULE.id, severity=RULE.severity, table="compounds", compound_id=rec.compound_id, column=col,
                 observed=float(t[col][i]), expected=(float(fixed[i]) if np.isfinite(fixed[i]) else None),
                 row=int(rec.c_row), source=rec.source, suggestion=suggestion,
+                corrected=(float(fixed[i]) if np.isfinite(fixed[i]) else None),
                 reference="phase order tm < tb < tc; Guldberg tb/tc band" if why[i] else "phase order tm < tb < tc",
                 message=message,
             )

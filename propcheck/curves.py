@@ -1,0 +1,156 @@
+"""Every compound's vapor-pressure curve, fitted once per run and shared by the rules.
+
+Loads the points below tc (points beyond it are ``vp-beyond-critical-point``'s)
+and the compounds' constants from DuckDB as numpy arrays,
+fits them all at once (:func:`propcheck.physics.vp_fit.fit_vapor_pressure`),
+compares each series with the Lee-Kesler corresponding-states estimate, and
+caches the result on the :class:`~propcheck.database.Database`.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from propcheck.physics.unit_slips import PRESSURE_SLIPS
+from propcheck.physics.vapor_pressure import lee_kesler_psat
+from propcheck.physics.vp_fit import FORM_TITLES, FORMS, VpFit, fit_vapor_pressure
+
+__all__ = ["Curves", "curves"]
+
+CS_TR_RANGE = (0.5, 1.0)  # Lee-Kesler is reliable here within a few percent (Poling et al. ch. 7)
+
+
+@dataclass
+class Curves:
+    """Points (sorted by compound, t), compounds and the fitted curves."""
+
+    ids: np.ndarray  # (G,) compound_id per group
+    group: np.ndarray  # (n,)
+    t: np.ndarray
+    p: np.ndarray
+    u: np.ndarray  # stated uncertainty [Pa], NaN where none
+    row: np.ndarray
+    source: np.ndarray
+    c_row: np.ndarray  # (G,) compounds row
+    c_source: np.ndarray
+    tc: np.ndarray
+    pc: np.ndarray
+    omega: np.ndarray
+    tb: np.ndarray
+    tm: np.ndarray
+    fit: VpFit
+    cs_log_ratio: np.ndarray  # (G,) median ln(p / p_Lee-Kesler) over points with Tr in CS_TR_RANGE
+    cs_points: np.ndarray  # (G,) number of points behind cs_log_ratio
+    series_factor: np.ndarray  # (G,) unit factor the whole series is off by, NaN if none
+    series_slip: np.ndarray  # (G,) text naming that slip, "" if none
+    _cache: dict = field(default_factory=dict, repr=False)
+
+    def describe(self, g) -> str:
+        """'Antoine fit of 8 points' for compound index g."""
+        form = FORMS[self.fit.form[g]]
+        return f"{FORM_TITLES.get(form, form)} fit of {int(self.fit.n_points[g])} points (robust)"
+
+    def index(self) -> dict[str, int]:
+        return {cid: i for i, cid in enumerate(self.ids)}
+
+    def free_fit_near_critical(self, min_tr: float) -> tuple[np.ndarray, VpFit | None]:
+        """Compounds whose points reach Tr >= min_tr, and a fit of them not anchored on tc, pc.
+
+        Returns the compound indices and a :class:`VpFit` whose group j is
+        compound ``indices[j]`` (cached per ``min_tr``).
+        """
+        key = ("free", min_tr)
+        if key not in self._cache:
+            with np.errstate(invalid="ignore"):
+                reach = self.fit.t_max / self.tc
+            eligible = (np.isfinite(reach) & (reach >= min_tr) & (reach < 1.0) & np.isfinite(self.pc)
+                        & ~np.isfinite(self.series_factor))
+            gsel = np.nonzero(eligible)[0]
+            free = None
+            if len(gsel):
+                mask = eligible[self.group]
+                local = np.searchsorted(gsel, self.group[mask])
+                nan = np.full(len(gsel), np.nan)
+                free = fit_vapor_pressure(local, self.t[mask], self.p[mask], len(gsel), nan, nan)
+            self._cache[key] = (gsel, free)
+        return self._cache[key]
+
+
+_POINTS_SQL = """
+SELECT dense_rank() OVER (ORDER BY v.compound_id) - 1 AS g, v.compound_id, v.t, v.p,
+       coalesce(v.uncertainty, 'NaN'::DOUBLE) AS u, v._row AS row, coalesce(v.source, '') AS source
+FROM vapor_pressure v JOIN compounds c USING (compound_id)
+WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc)
+ORDER BY g, v.t, v._row
+"""
+
+_COMPOUNDS_SQL = """
+WITH ids AS (SELECT DISTINCT v.compound_id FROM vapor_pressure v JOIN compounds c USING (compound_id)
+             WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc))
+SELECT c.compound_id, c._row AS row, coalesce(c.source, '') AS source,
+       coalesce(c.tc, 'NaN'::DOUBLE) AS tc, coalesce(c.pc, 'NaN'::DOUBLE) AS pc,
+       coalesce(c.omega, 'NaN'::DOUBLE) AS omega, coalesce(c.tb, 'NaN'::DOUBLE) AS tb,
+       coalesce(c.tm, 'NaN'::DOUBLE) AS tm
+FROM compounds c JOIN ids USING (compound_id)
+ORDER BY c.compound_id
+"""
+
+
+def curves(db) -> Curves | None:
+    """The run's fitted curves (computed on first use), or None without vapor-pressure data."""
+    if "curves" not in db.cache:
+        db.cache["curves"] = _compute(db) if db.has("vapor_pressure") else None
+    return db.cache["curves"]
+
+
+def _compute(db) -> Curves | None:
+    pts = db.con.execute(_POINTS_SQL).fetchnumpy()
+    if len(pts["g"]) == 0:
+        return None
+    comp = db.con.execute(_COMPOUNDS_SQL).fetchnumpy()
+    group = np.asarray(pts["g"], dtype=np.int64)
+    n_groups = len(comp["compound_id"])
+    tc, pc = np.asarray(comp["tc"], float), np.asarray(comp["pc"], float)
+    t, p = np.asarray(pts["t"], float), np.asarray(pts["p"], float)
+    fit = fit_vapor_pressure(group, t, p, n_groups, tc, pc)
+    omega = np.asarray(comp["omega"], float)
+    log_ratio, n_cs = _cs_log_ratio(group, t, p, n_groups, tc, pc, omega)
+    factor, slip = _series_slip(log_ratio)
+    return Curves(
+        ids=np.asarray(comp["compound_id"], dtype=object), group=group, t=t, p=p,
+        u=np.asarray(pts["u"], float), row=np.asarray(pts["row"]), source=np.asarray(pts["source"], dtype=object),
+        c_row=np.asarray(comp["row"]), c_source=np.asarray(comp["source"], dtype=object), tc=tc, pc=pc,
+        omega=omega, tb=np.asarray(comp["tb"], float), tm=np.asarray(comp["tm"], float), fit=fit,
+        cs_log_ratio=log_ratio, cs_points=n_cs, series_factor=factor, series_slip=slip,
+    )
+
+
+def _cs_log_ratio(group, t, p, n_groups, tc, pc, omega):
+    from propcheck.physics.grouped_fit import group_median
+
+    tr = t / tc[group]
+    use = np.isfinite(tr) & (tr >= CS_TR_RANGE[0]) & (tr < CS_TR_RANGE[1]) & np.isfinite(omega[group]) & np.isfinite(pc[group])
+    with np.errstate(all="ignore"):
+        ratio = np.log(p / lee_kesler_psat(t, tc[group], pc[group], omega[group]))
+    ratio = np.where(use, ratio, np.nan)
+    n_cs = np.bincount(group[use], minlength=n_groups)
+    # median over usable points only: push unusable ones into a spare group
+    g2 = np.where(use, group, n_groups)
+    med = group_median(np.where(use, ratio, 0.0), g2, n_groups + 1)[:n_groups]
+    return np.where(n_cs > 0, med, np.nan), n_cs
+
+
+def _series_slip(log_ratio, rel_tol=0.25):
+    """The unit factor a whole series is off by (as observed/expected), if any."""
+    factor = np.full(len(log_ratio), np.nan)
+    text = np.full(len(log_ratio), "", dtype=object)
+    best = np.full(len(log_ratio), np.inf)
+    for f, what in PRESSURE_SLIPS:
+        misfit = np.abs(log_ratio - np.log(f))
+        hit = (misfit < np.log1p(rel_tol)) & (misfit < best)
+        best = np.where(hit, misfit, best)
+        factor = np.where(hit, f, factor)
+        text[hit] = what
+    return factor, text

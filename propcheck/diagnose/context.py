@@ -1,0 +1,148 @@
+"""The evidence a compound row is judged by, built once per run.
+
+For every compound: its numeric constants, the molar mass of its formula
+(IUPAC 2021 weights), its family's leave-one-out trend for tc, tb, pc and
+omega (references C14), and the span of its own vapor-pressure points (a
+Clausius-Clapeyron interpolation gives tb when 101325 Pa lies inside).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+import pandas as pd
+
+from propcheck.physics.atomic_weights import molar_mass, parse_formula
+from propcheck.physics.family_trend import trend_outliers
+from propcheck.physics.vapor_pressure import P_ATM
+
+__all__ = ["NUMERIC", "TREND_COLUMNS", "Context", "FAMILY_DEFAULTS", "get_context"]
+
+NUMERIC = ("molar_mass", "tc", "pc", "vc", "zc", "omega", "tb", "tm")
+TREND_COLUMNS = ("tc", "tb", "pc", "omega")
+
+# Defaults of the off-family-trend rule (references C14; rules/default.toml
+# gives the basis of each number).
+FAMILY_DEFAULTS = {
+    "tolerance": {"tc": 3.0, "tb": 2.0, "pc": 0.03, "omega": 0.02},
+    "isomer_tolerance": {"tc": 15.0, "tb": 12.0, "pc": 0.08, "omega": 0.05},
+    "neighbours_each_side": 3,
+    "min_neighbours": 4,
+    "head_members": 1,
+    "irregular_heads": {"1-alkanol": 2},
+    "skip_omega": ["1-alkanol"],
+    "not_series": ["inorganic", "other", "miscellaneous"],
+    "max_off_share": 0.5,
+}
+
+
+@dataclass
+class Context:
+    frame: pd.DataFrame  # compounds: _row, compound_id, name, cas, formula, family, source
+    values: dict[str, np.ndarray]
+    formula_mass: np.ndarray
+    carbon: np.ndarray
+    family_code: np.ndarray  # -1: no family or not a series
+    judged: dict[str, np.ndarray] = field(default_factory=dict)  # member may be judged for this column
+    expected: dict[str, np.ndarray] = field(default_factory=dict)
+    tolerance: dict[str, np.ndarray] = field(default_factory=dict)
+    neighbours: dict[str, np.ndarray] = field(default_factory=dict)
+    vp_tmax: np.ndarray | None = None
+    vp_tb: np.ndarray | None = None
+
+    def family_z(self, column: str, values: np.ndarray, rows: np.ndarray) -> np.ndarray:
+        """|value - family expectation| / tolerance for ``rows``; NaN where not judged."""
+        exp = self.expected[column][rows]
+        if column == "pc":
+            with np.errstate(divide="ignore", invalid="ignore"):
+                dev = np.log(values) - exp
+        else:
+            dev = values - exp
+        return np.where(self.judged[column][rows], np.abs(dev) / self.tolerance[column][rows], np.nan)
+
+    def expected_value(self, column: str, row: int) -> float:
+        value = self.expected[column][row]
+        return float(np.exp(value)) if column == "pc" else float(value)
+
+
+def _family_x(frame: pd.DataFrame, carbon: np.ndarray, mass: np.ndarray, code: np.ndarray) -> np.ndarray:
+    """ln(carbon number) where every member of the family has one, else ln(molar mass)."""
+    has_c = pd.Series(carbon > 0).groupby(code).transform("all").to_numpy()
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return np.where(has_c, np.log(carbon), np.log(mass))
+
+
+def _vp_summary(db, ids: pd.Series) -> tuple[np.ndarray, np.ndarray]:
+    n = len(ids)
+    if not db.has("vapor_pressure"):
+        return np.full(n, -np.inf), np.full(n, np.nan)
+    # tb from the two points bracketing 101325 Pa, linear in ln p against 1/T
+    # (Clausius-Clapeyron over a short interval).
+    summary = db.df(f"""
+        WITH pts AS (SELECT compound_id, t, p FROM vapor_pressure WHERE t > 0 AND p > 0),
+        lo AS (SELECT compound_id, arg_max(t, p) AS t1, max(p) AS p1 FROM pts WHERE p <= {P_ATM} GROUP BY 1),
+        hi AS (SELECT compound_id, arg_min(t, p) AS t2, min(p) AS p2 FROM pts WHERE p > {P_ATM} GROUP BY 1),
+        top AS (SELECT compound_id, max(t) AS tmax FROM pts GROUP BY 1)
+        SELECT top.compound_id, tmax, t1, p1, t2, p2 FROM top
+        LEFT JOIN lo USING (compound_id) LEFT JOIN hi USING (compound_id)""").set_index("compound_id")
+    summary = summary.reindex(ids.to_numpy())
+    t1, p1, t2, p2 = (summary[c].to_numpy(dtype=float) for c in ("t1", "p1", "t2", "p2"))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        inv = 1 / t1 + (np.log(P_ATM) - np.log(p1)) * (1 / t2 - 1 / t1) / (np.log(p2) - np.log(p1))
+        vp_tb = np.where(t2 > t1, 1 / inv, np.nan)
+    tmax = summary["tmax"].to_numpy(dtype=float)
+    return np.where(np.isfinite(tmax), tmax, -np.inf), vp_tb
+
+
+def build_context(db, params: dict | None = None) -> Context:
+    """Gather the evidence for every compound row of ``db``."""
+    p = {**FAMILY_DEFAULTS, **(params or {})}
+    frame = db.df("SELECT * FROM compounds ORDER BY _row").reset_index(drop=True)
+    for column in ("name", "cas", "formula", "family", "source", "compound_id"):
+        if column not in frame.columns:
+            frame[column] = None
+    values = {c: (frame[c].to_numpy(dtype=float) if c in frame.columns else np.full(len(frame), np.nan)) for c in NUMERIC}
+    formulas = frame["formula"].astype(object).where(frame["formula"].notna(), "")
+    mass = molar_mass(formulas.tolist())
+    carbon = np.array([float((parse_formula(f) or {}).get("C", 0)) if f else 0.0 for f in formulas.unique()])
+    carbon = pd.Series(carbon, index=formulas.unique()).reindex(formulas).to_numpy()
+    family = frame["family"].astype(object).where(frame["family"].notna(), "").astype(str).str.strip().str.lower()
+    not_series = {s.lower() for s in p["not_series"]}
+    code_values, uniques = pd.factorize(family)
+    code = np.where((family == "") | family.isin(not_series), -1, code_values)
+    ctx = Context(frame=frame, values=values, formula_mass=mass, carbon=carbon, family_code=code)
+    x = _family_x(frame, carbon, np.where(np.isfinite(values["molar_mass"]), values["molar_mass"], mass), code)
+    # irregular heads: the first members of some series are neither judged nor used as neighbours
+    heads = {name.lower(): count for name, count in p["irregular_heads"].items()}
+    count = family.map(lambda f: heads.get(f, p["head_members"])).to_numpy()
+    rank = pd.Series(x).groupby(code).rank(method="dense").to_numpy()
+    head = (code >= 0) & (rank <= count)
+    has_isomer = pd.Series(x).groupby([code, np.round(x, 9)]).transform("size").to_numpy() > 1
+    skip_omega = family.isin({s.lower() for s in p["skip_omega"]}).to_numpy()
+    for column in TREND_COLUMNS:
+        y = values[column]
+        if column == "pc":
+            with np.errstate(divide="ignore", invalid="ignore"):
+                y = np.log(y)
+        valid = (code >= 0) & np.isfinite(y) & np.isfinite(x) & ~head
+        if column == "omega":
+            valid &= ~skip_omega
+        tol = np.where(has_isomer, p["isomer_tolerance"][column], p["tolerance"][column])
+        expected, _, nb = trend_outliers(code, x, y, valid, tol, p["neighbours_each_side"], p["min_neighbours"])
+        member = (code >= 0) & np.isfinite(x) & ~head & ~(skip_omega & (column == "omega"))
+        ctx.judged[column] = member & np.isfinite(expected)
+        ctx.expected[column] = expected
+        ctx.tolerance[column] = tol
+        ctx.neighbours[column] = nb
+    ctx.vp_tmax, ctx.vp_tb = _vp_summary(db, frame["compound_id"])
+    return ctx
+
+
+def get_context(db, params: dict | None = None) -> Context:
+    """The run's context, built on first use (per family parameters)."""
+    key = repr(sorted({**FAMILY_DEFAULTS, **(params or {})}.items()))
+    cache = db.__dict__.setdefault("_diagnose_context", {})
+    if key not in cache:
+        cache[key] = build_context(db, params)
+    return cache[key]

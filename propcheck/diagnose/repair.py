@@ -1,0 +1,205 @@
+"""Try the usual slips on suspect cells; keep the one that makes the row consistent.
+
+Each candidate row (one cell repaired, or two cells swapped) is scored by
+the evidence available for that compound, all candidates at once:
+
+* order and bands: tm < tb < tc; tb/tc in Guldberg's band (references C11);
+  Zc = pc vc/(R tc) in the observed band and equal to a stored zc (C12);
+  omega in the observed range; the gross bounds of ``value-out-of-range``;
+* its own vapor-pressure curve: tb against Lee-Kesler from tc, pc, omega
+  (C10), tc above its highest point, tb against the points bracketing
+  101325 Pa;
+* its family's trend (C14) and its formula's molar mass (C16).
+
+A check contributes ``z = |deviation| / tolerance``; a row is consistent
+when every z <= 1. The best candidate fails fewest checks, then has the
+smallest sum of z^2 (plus a small penalty for transposed digits, swaps and
+copies: unit slips are the commoner clerical error); it is proposed only if
+it fails fewer checks than the row as stored. "likely" when it leaves no check failing and no other
+candidate does as well, else "possibly".
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from propcheck.diagnose.context import NUMERIC, TREND_COLUMNS, Context
+from propcheck.physics.corresponding_states import lee_kesler_tb
+from propcheck.physics.slips import QUANTITY, value_candidates
+
+__all__ = ["Diagnosis", "EVIDENCE", "diagnose", "evidence_z"]
+
+R = 8.314462618  # J/(mol K), exact (SI 2019)
+
+# Tolerances of the evidence (references: C10 Lee-Kesler tb 2 K, doubled for
+# polar compounds; C11 Guldberg band; C12 Zc; C16 molar mass; section 2 omega).
+EVIDENCE = {
+    "guldberg_band": (0.55, 0.87),
+    "zc_band": (0.20, 0.31),
+    "zc_match": 0.005,
+    "omega_range": (-0.40, 1.5),
+    "lk_tb": 2.0,
+    "lk_polar_factor": 2.0,
+    "vp_tb": 2.0,
+    "bounds": {"molar_mass": (1.0, 5000.0), "tc": (2.0, 2500.0), "pc": (1e5, 2e8), "vc": (1e-5, 1e-2),
+               "zc": (0.05, 0.5), "omega": (-1.0, 2.5), "tb": (1.0, 2500.0), "tm": (0.5, 4000.0)},
+}
+_HARD = 1e3
+
+PRIOR_PENALTY = 0.5
+
+
+def _is_unit(what: str) -> bool:
+    return not (what.startswith("transposed") or "swapped" in what or "copied" in what)
+
+
+SWAPS = {"tc": ("tb", "tm", "pc"), "tb": ("tc", "tm"), "tm": ("tb", "tc"), "pc": ("tc",), "zc": ("omega",), "omega": ("zc",)}
+
+
+@dataclass
+class Diagnosis:
+    row: int  # position in the context frame
+    column: str
+    what: str
+    corrected: float
+    confidence: str  # "likely" | "possibly"
+    evidence: str
+    others: dict[str, float]  # further cells changed by the repair (a swap)
+
+    def suggestion(self, unit: str = "") -> str:
+        more = "".join(f", {c} {v:.6g}" for c, v in self.others.items())
+        return f"{self.confidence}: {self.what} corrected {self.column} {self.corrected:.6g}{unit}{more} ({self.evidence})"
+
+
+def _polar(ctx: Context, rows: np.ndarray) -> np.ndarray:
+    formula = ctx.frame["formula"].astype(object).to_numpy()[rows]
+    return np.array([bool(f) and any(e in str(f) for e in ("O", "N", "F", "S")) for f in formula])
+
+
+def evidence_z(ctx: Context, rows: np.ndarray, v: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
+    """z of every check for candidate rows ``v`` of compounds ``rows``; NaN where a check does not apply."""
+    e = EVIDENCE
+    z: dict[str, np.ndarray] = {}
+    with np.errstate(divide="ignore", invalid="ignore"):
+        out = np.zeros(len(rows))
+        for c, (lo, hi) in e["bounds"].items():
+            out = np.where(np.isfinite(v[c]) & ((v[c] < lo) | (v[c] > hi)), _HARD, out)
+        z["bounds"] = out
+        order = np.zeros(len(rows))
+        for a, b in (("tm", "tb"), ("tb", "tc"), ("tm", "tc")):
+            order = np.where(np.isfinite(v[a]) & np.isfinite(v[b]) & (v[a] >= v[b]), _HARD, order)
+        z["phase order"] = order
+        ratio = v["tb"] / v["tc"]
+        lo, hi = e["guldberg_band"]
+        z["Guldberg tb/tc"] = np.where(ratio < lo, 1 + (lo - ratio) / 0.02, np.where(ratio > hi, 1 + (ratio - hi) / 0.02, 0.0))
+        zc = v["pc"] * v["vc"] / (R * v["tc"])
+        lo, hi = e["zc_band"]
+        z["Zc band"] = np.where(zc < lo, 1 + (lo - zc) / 0.01, np.where(zc > hi, 1 + (zc - hi) / 0.01, 0.0))
+        z["stored zc"] = np.abs(v["zc"] - zc) / e["zc_match"]
+        lo, hi = e["omega_range"]
+        z["omega range"] = np.where((v["omega"] < lo) | (v["omega"] > hi), 2.0, np.where(np.isfinite(v["omega"]), 0.0, np.nan))
+        tol = np.where(_polar(ctx, rows), e["lk_tb"] * e["lk_polar_factor"], e["lk_tb"])
+        z["Lee-Kesler tb"] = np.abs(v["tb"] - lee_kesler_tb(v["tc"], v["pc"], v["omega"])) / tol
+        z["vapor-pressure points below tc"] = np.where(np.isfinite(v["tc"]), np.where(v["tc"] < ctx.vp_tmax[rows], _HARD, 0.0), np.nan)
+        z["tb from vapor-pressure points"] = np.abs(v["tb"] - ctx.vp_tb[rows]) / e["vp_tb"]
+        m = v["molar_mass"]
+        z["formula molar mass"] = np.abs(m - ctx.formula_mass[rows]) / (0.02 + 2e-4 * m)
+        for c in TREND_COLUMNS:
+            z[f"family trend {c}"] = ctx.family_z(c, v[c], rows)
+    return z
+
+
+def _score(z: dict[str, np.ndarray]) -> tuple[np.ndarray, np.ndarray]:
+    stack = np.vstack(list(z.values()))
+    failing = np.nansum(stack > 1.0, axis=0)
+    total = np.nansum(np.minimum(np.nan_to_num(stack, nan=0.0), 30.0) ** 2, axis=0)
+    return failing, total
+
+
+def _names_passing(z, before, i) -> str:
+    fixed = [k for k in z if np.isfinite(before[k][i]) and before[k][i] > 1 and z[k][i] <= 1]
+    kept = [k for k in z if np.isfinite(z[k][i]) and z[k][i] <= 1 and k not in fixed
+            and k not in ("bounds", "phase order", "omega range")]
+    parts = ["restores " + ", ".join(fixed) if fixed else "improves the row"]
+    if kept:
+        parts.append("agrees with " + ", ".join(kept))
+    return "; ".join(parts)
+
+
+def diagnose(ctx: Context, rows, columns, raw: dict[str, np.ndarray] | None = None) -> list[Diagnosis | None]:
+    """Best repair of cell (rows[k], columns[k]) for each k; None where no slip helps.
+
+    ``columns[k]`` may be one column or a tuple of columns to try (the best
+    over them is kept: attribution between constants that disagree).
+    ``raw`` overrides the context values (cells withheld by the schema stage).
+    """
+    rows = np.asarray(rows, dtype=int)
+    base = {c: ctx.values[c].copy() for c in NUMERIC}
+    for c, arr in (raw or {}).items():
+        base[c] = np.where(np.isfinite(arr), arr, base[c])
+    cand_cell, cand_row, cand_what, cand_col, cand_val, cand_extra = [], [], [], [], [], []
+    for k, (r, cols) in enumerate(zip(rows, columns)):  # loop over suspect cells (findings)
+        cols = (cols,) if isinstance(cols, str) else tuple(cols)
+        cand_cell.append(k); cand_row.append(r); cand_what.append(""); cand_col.append(cols[0])
+        cand_val.append(base[cols[0]][r]); cand_extra.append({})
+        for col in cols:
+            value = base[col][r]
+            if not np.isfinite(value) or col not in QUANTITY:
+                continue
+            for what, new in value_candidates(col, float(value)):
+                cand_cell.append(k); cand_row.append(r); cand_what.append(what); cand_col.append(col)
+                cand_val.append(new); cand_extra.append({})
+            for other in SWAPS.get(col, ()):
+                if np.isfinite(base[other][r]):
+                    cand_cell.append(k); cand_row.append(r); cand_what.append(f"{col} and {other} swapped?")
+                    cand_col.append(col); cand_val.append(base[other][r]); cand_extra.append({other: float(value)})
+            dup = _copied_from(ctx, col, r, value)
+            if dup is not None and col in ctx.judged and ctx.judged[col][r]:
+                cand_cell.append(k); cand_row.append(r); cand_what.append(f"value copied from {dup}? family trend gives")
+                cand_col.append(col); cand_val.append(ctx.expected_value(col, r)); cand_extra.append({})
+    cand_row_a = np.array(cand_row, dtype=int)
+    v = {c: base[c][cand_row_a].copy() for c in NUMERIC}
+    cand_col_a = np.array(cand_col, dtype=object)
+    for c in NUMERIC:
+        hit = cand_col_a == c
+        v[c][hit] = np.array(cand_val, dtype=float)[hit]
+    for i, extra in enumerate(cand_extra):
+        for c, val in extra.items():
+            v[c][i] = val
+    z = evidence_z(ctx, cand_row_a, v)
+    failing, total = _score(z)
+    # among repairs that fit equally, unit slips (the commoner clerical error) beat
+    # transposed digits, swaps and copies: a small prior penalty on the latter
+    what = np.array(cand_what, dtype=object)
+    total = total + np.array([PRIOR_PENALTY if w and not _is_unit(w) else 0.0 for w in what])
+    cell = np.array(cand_cell)
+    result: list[Diagnosis | None] = []
+    for k in range(len(rows)):  # pick per suspect cell
+        idx = np.flatnonzero(cell == k)
+        stored, trials = idx[0], idx[1:]
+        if len(trials) == 0:
+            result.append(None)
+            continue
+        order = trials[np.lexsort((total[trials], failing[trials]))]
+        best = order[0]
+        if failing[best] >= failing[stored] or total[best] >= total[stored]:
+            result.append(None)
+            continue
+        rivals = [j for j in order[1:] if failing[j] == failing[best] and total[j] < 4 * total[best] + 0.1
+                  and not np.isclose(v[cand_col[j]][j], v[cand_col[best]][best])]
+        sure = failing[best] == 0 and not rivals
+        before = {name: np.full(len(cand_row), arr[stored]) for name, arr in z.items()}
+        result.append(Diagnosis(
+            row=int(rows[k]), column=cand_col[best], what=cand_what[best], corrected=float(cand_val[best]),
+            confidence="likely" if sure else "possibly", evidence=_names_passing(z, before, best),
+            others=cand_extra[best]))
+    return result
+
+
+def _copied_from(ctx: Context, column: str, row: int, value: float) -> str | None:
+    same = np.flatnonzero(ctx.values[column] == value)
+    names = ctx.frame["name"].astype(object).to_numpy()
+    others = [i for i in same if i != row and names[i] != names[row]]
+    return str(ctx.frame["compound_id"].iloc[others[0]]) if others else None
