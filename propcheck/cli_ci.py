@@ -72,19 +72,15 @@ def cmd_check(args) -> int:
     baseline = read_baseline(args.baseline) if getattr(args, "baseline", None) else None
     waivers = None
     if getattr(args, "waivers", None):
-        waivers = read_waivers(args.waivers, known_rules=None)
+        from propcheck.rules.pack import load_pack
+
+        known = set(all_rules()) | set(load_pack(args.rules).custom)
+        waivers = read_waivers(args.waivers, known_rules=known)
     progress, close = progress_for(args.quiet, args.rules)
     try:
         result = run_check(args.source, args.config, args.rules, progress=progress)
     finally:
         close()
-    if waivers:
-        known = set(all_rules()) | set(result.pack.custom)
-        for w in waivers:
-            if w.rule is not None and w.rule not in known:
-                from propcheck.errors import UsageError
-
-                raise UsageError("no such rule (see 'propcheck rules')", file=args.waivers, key=f"{w.name}.rule")
     data = build_report_data(result, fail_on=args.fail_on, baseline=baseline, waivers=waivers,
                              waiver_path=getattr(args, "waivers", None))
     if getattr(args, "history", None):

@@ -9,7 +9,7 @@ caches the result on the :class:`~propcheck.database.Database`.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 
 import numpy as np
 
@@ -32,7 +32,7 @@ class Curves:
     p: np.ndarray
     u: np.ndarray  # stated uncertainty [Pa], NaN where none
     row: np.ndarray
-    source: np.ndarray
+    db: object  # the Database, to look up the source of flagged points
     c_row: np.ndarray  # (G,) compounds row
     c_source: np.ndarray
     tc: np.ndarray
@@ -45,7 +45,6 @@ class Curves:
     cs_points: np.ndarray  # (G,) number of points behind cs_log_ratio
     series_factor: np.ndarray  # (G,) unit factor the whole series is off by, NaN if none
     series_slip: np.ndarray  # (G,) text naming that slip, "" if none
-    _cache: dict = field(default_factory=dict, repr=False)
 
     def describe(self, g) -> str:
         """'Antoine fit of 8 points' for compound index g."""
@@ -56,31 +55,32 @@ class Curves:
         return {cid: i for i, cid in enumerate(self.ids)}
 
     def free_fit_near_critical(self, min_tr: float) -> tuple[np.ndarray, VpFit | None]:
-        """Compounds whose points reach Tr >= min_tr, and a fit of them not anchored on tc, pc.
+        """Compounds whose points reach Tr >= min_tr, and their fits not anchored on tc, pc.
 
-        Returns the compound indices and a :class:`VpFit` whose group j is
-        compound ``indices[j]`` (cached per ``min_tr``).
+        Returns the compound indices and a :class:`VpFit` of the free forms
+        (indexed by compound, like every other array here).
         """
-        key = ("free", min_tr)
-        if key not in self._cache:
-            with np.errstate(invalid="ignore"):
-                reach = self.fit.t_max / self.tc
-            eligible = (np.isfinite(reach) & (reach >= min_tr) & (reach < 1.0) & np.isfinite(self.pc)
-                        & ~np.isfinite(self.series_factor))
-            gsel = np.nonzero(eligible)[0]
-            free = None
-            if len(gsel):
-                mask = eligible[self.group]
-                local = np.searchsorted(gsel, self.group[mask])
-                nan = np.full(len(gsel), np.nan)
-                free = fit_vapor_pressure(local, self.t[mask], self.p[mask], len(gsel), nan, nan)
-            self._cache[key] = (gsel, free)
-        return self._cache[key]
+        with np.errstate(invalid="ignore"):
+            reach = self.fit.t_max / self.tc
+        eligible = (np.isfinite(reach) & (reach >= min_tr) & (reach < 1.0) & np.isfinite(self.pc)
+                    & ~np.isfinite(self.series_factor) & (self.fit.free_form > 0))
+        gsel = np.nonzero(eligible)[0]
+        return gsel, (self.fit.free() if len(gsel) else None)
+
+    def point_sources(self, rows) -> np.ndarray:
+        """The ``source`` of the vapor-pressure rows ``rows`` (looked up only for findings)."""
+        rows = np.asarray(rows)
+        if len(rows) == 0:
+            return np.array([], dtype=object)
+        found = dict(self.db.con.execute(
+            "SELECT _row, source FROM vapor_pressure WHERE _row IN (SELECT unnest(?))", [rows.tolist()]
+        ).fetchall())
+        return np.array([found.get(int(r)) for r in rows], dtype=object)
 
 
 _POINTS_SQL = """
-SELECT dense_rank() OVER (ORDER BY v.compound_id) - 1 AS g, v.compound_id, v.t, v.p,
-       coalesce(v.uncertainty, 'NaN'::DOUBLE) AS u, v._row AS row, coalesce(v.source, '') AS source
+SELECT dense_rank() OVER (ORDER BY v.compound_id) - 1 AS g, v.t, v.p,
+       coalesce(v.uncertainty, 'NaN'::DOUBLE) AS u, v._row AS row
 FROM vapor_pressure v JOIN compounds c USING (compound_id)
 WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc)
 ORDER BY g, v.t, v._row
@@ -120,7 +120,7 @@ def _compute(db) -> Curves | None:
     factor, slip = _series_slip(log_ratio)
     return Curves(
         ids=np.asarray(comp["compound_id"], dtype=object), group=group, t=t, p=p,
-        u=np.asarray(pts["u"], float), row=np.asarray(pts["row"]), source=np.asarray(pts["source"], dtype=object),
+        u=np.asarray(pts["u"], float), row=np.asarray(pts["row"]), db=db,
         c_row=np.asarray(comp["row"]), c_source=np.asarray(comp["source"], dtype=object), tc=tc, pc=pc,
         omega=omega, tb=np.asarray(comp["tb"], float), tm=np.asarray(comp["tm"], float), fit=fit,
         cs_log_ratio=log_ratio, cs_points=n_cs, series_factor=factor, series_slip=slip,

@@ -54,11 +54,12 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
     table_map = mapping.table(spec.name)
     raw_name = f"raw_{spec.name}"
     try:
-        con.execute(f"CREATE TEMP TABLE {raw_name} AS SELECT row_number() OVER () AS _row, * FROM {raw.relation}")
+        # a view, not a copy: the source is read once to build the table and once to report bad cells
+        con.execute(f"CREATE TEMP VIEW {raw_name} AS SELECT row_number() OVER () AS _row, * FROM {raw.relation}")
+        described = con.execute(f"DESCRIBE {raw_name}").fetchall()
     except duckdb.Error as exc:
         reason = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
         raise UsageError(f"cannot read ({reason})", file=raw.origin, table=spec.name) from None
-    described = con.execute(f"DESCRIBE {raw_name}").fetchall()
     types = {row[0]: row[1] for row in described if row[0] != "_row"}
     by_lower = {name.strip().lower(): name for name in types}
 
@@ -80,11 +81,7 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
             continue
         chosen[column.name] = actual
 
-    rows_read = con.execute(f"SELECT count(*) FROM {raw_name}").fetchone()[0]
-    info = TableInfo(spec.name, raw.origin, rows_read=rows_read)
-    if rows_read == 0 and spec.required:
-        raise UsageError("table has no rows", file=raw.origin, table=spec.name)
-
+    info = TableInfo(spec.name, raw.origin)
     select = ["_row"]
     for column in spec.columns:
         src = chosen.get(column.name)
@@ -105,10 +102,16 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
         if src not in used and src.strip().lower() not in canonical_names:
             select.append(_q(src))
             info.extra_columns.append(src)
-    con.execute(f"CREATE TABLE {spec.name} AS SELECT {', '.join(select)} FROM {raw_name} ORDER BY _row")
-
-    _report_bad_cells(db, spec, raw, chosen, types, info)
-    con.execute(f"DROP TABLE {raw_name}")
+    try:
+        con.execute(f"CREATE TABLE {spec.name} AS SELECT {', '.join(select)} FROM {raw_name}")
+    except duckdb.Error as exc:
+        reason = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
+        raise UsageError(f"cannot read ({reason})", file=raw.origin, table=spec.name) from None
+    info.rows_read = con.execute(f"SELECT count(*) FROM {spec.name}").fetchone()[0]
+    if info.rows_read == 0 and spec.required:
+        raise UsageError("table has no rows", file=raw.origin, table=spec.name)
+    _report_bad_cells(db, spec, raw, chosen, types, info, table_map)
+    con.execute(f"DROP VIEW {raw_name}")
     db.tables[spec.name] = info
 
 
@@ -130,23 +133,34 @@ def _unit_hint(text: str) -> str | None:
     return f"a number with a unit ({tail.strip()!r}): store the number alone and declare the unit in the mapping file" if tail.strip() else None
 
 
-def _report_bad_cells(db, spec, raw, chosen, types, info) -> None:
+def _report_bad_cells(db, spec, raw, chosen, types, info, table_map) -> None:
+    """One pass over the source: every numeric cell that does not parse becomes a finding."""
     raw_name = f"raw_{spec.name}"
     label = Path(raw.origin).name if db.kind == "folder" else raw.origin
-    id_expr = _text("r." + _q(chosen["compound_id"]))
-    src_expr = _text("r." + _q(chosen["source"])) if "source" in chosen else "NULL"
-    for column in spec.columns:
-        src = chosen.get(column.name)
-        if src is None or not column.numeric:
-            continue
-        typed = types[src].upper().startswith(NUMERIC_TYPES)
-        t_expr = "c.t" if spec.name == "vapor_pressure" and column.name != "t" else "NULL"
-        rows = db.con.execute(
-            f"SELECT r._row, {id_expr}, CAST(r.{_q(src)} AS VARCHAR), {src_expr}, {t_expr} "
-            f"FROM {raw_name} r JOIN {spec.name} c ON c._row = r._row "
-            f"WHERE {_bad('r.' + _q(src), typed, raw.csv_decimal)} ORDER BY r._row"
-        ).fetchall()
-        for row, compound_id, text, source, t in rows:
+    numeric = [c for c in spec.columns if c.numeric and c.name in chosen]
+    if not numeric:
+        return
+    typed = {c.name: types[chosen[c.name]].upper().startswith(NUMERIC_TYPES) for c in numeric}
+    bad = {c.name: _bad(_q(chosen[c.name]), typed[c.name], raw.csv_decimal) for c in numeric}
+    t_expr = "NULL"
+    if spec.name == "vapor_pressure":  # findings on a point carry its temperature
+        conv = _conversion(table_map.units, "t")
+        parsed = _parsed(_q(chosen["t"]), typed["t"], raw.csv_decimal)
+        value = f"({parsed}) * {conv.scale!r} + {conv.offset!r}" if conv else parsed
+        t_expr = f"CASE WHEN {bad['t']} THEN NULL ELSE {value} END"
+    texts = ", ".join(f"CAST({_q(chosen[c.name])} AS VARCHAR)" for c in numeric)
+    flags = ", ".join(bad[c.name] for c in numeric)
+    src_expr = _text(_q(chosen["source"])) if "source" in chosen else "NULL"
+    rows = db.con.execute(
+        f"SELECT _row, {_text(_q(chosen['compound_id']))}, {src_expr}, {t_expr}, {texts}, {flags} "
+        f"FROM {raw_name} WHERE {' OR '.join(bad.values())} ORDER BY _row"
+    ).fetchall()
+    k = len(numeric)
+    for record in rows:
+        row, compound_id, source, t = record[:4]
+        for column, text, is_bad in zip(numeric, record[4:4 + k], record[4 + k:]):
+            if not is_bad:
+                continue
             info.cells_rejected += 1
             db.rejected_cells.add((spec.name, row, column.name))
             db.load_findings.append(
@@ -157,7 +171,7 @@ def _report_bad_cells(db, spec, raw, chosen, types, info) -> None:
                     compound_id=compound_id,
                     column=column.name,
                     observed=text,
-                    t=t,
+                    t=t if column.name != "t" else None,
                     row=row,
                     source=source,
                     suggestion=_unit_hint(text),

@@ -78,6 +78,15 @@ class VpFit:
     anchor_misfit: np.ndarray  # (G,) Wagner scale / free-form scale where both were fitted, else NaN
     alt_residual: np.ndarray  # (n,) free-form residual where Wagner is the chosen form, else NaN
     alt_scale: np.ndarray  # (G,) free-form residual scale where Wagner is the chosen form, else NaN
+    free_form: np.ndarray  # (G,) form fitted without tc and pc (Riedel, Antoine or Clausius-Clapeyron)
+    free_coef: np.ndarray  # (G, 4) its coefficients
+
+    def free(self) -> "VpFit":
+        """The fits made without tc and pc, as a VpFit of their own (for extrapolation to tc)."""
+        return VpFit(form=self.free_form, coef=self.free_coef, tc=self.tc, pc=self.pc, n_points=self.n_points,
+                     t_min=self.t_min, t_max=self.t_max, scale=self.scale, residual=self.alt_residual,
+                     weight=self.weight, anchor_misfit=self.anchor_misfit, alt_residual=self.alt_residual,
+                     alt_scale=self.alt_scale, free_form=self.free_form, free_coef=self.free_coef)
 
     def form_name(self, g) -> np.ndarray:
         return np.asarray(FORMS, dtype=object)[self.form[g]]
@@ -225,6 +234,7 @@ def fit_vapor_pressure(group, t, p, n_groups, tc, pc, min_scale=1e-3) -> VpFit:
         store(rows, groups, beta, res, w, sc, 3)
 
     form = free.copy()
+    free_coef = coef.copy()
     anchor_misfit = np.full(n_groups, np.nan)
     alt_residual = np.full(len(t), np.nan)
     alt_scale = np.full(n_groups, np.nan)
@@ -248,7 +258,7 @@ def fit_vapor_pressure(group, t, p, n_groups, tc, pc, min_scale=1e-3) -> VpFit:
 
     return VpFit(form=form, coef=coef, tc=tc, pc=pc, n_points=n, t_min=t_min, t_max=t_max, scale=scale,
                  residual=residual, weight=weight, anchor_misfit=anchor_misfit, alt_residual=alt_residual,
-                 alt_scale=alt_scale)
+                 alt_scale=alt_scale, free_form=free, free_coef=free_coef)
 
 
 def _fit_antoine(t, ln_p, group, n_groups, min_scale, w0, tuning=4.685, iterations=25):

@@ -54,7 +54,7 @@ def vapor_pressure(db) -> tuple[pd.DataFrame, pd.DataFrame]:
         points = db.df("SELECT _row, compound_id, t, p, source, "
                        + ("uncertainty" if _has(db, "vapor_pressure", "uncertainty") else "NULL AS uncertainty")
                        + " FROM vapor_pressure WHERE t IS NOT NULL AND p IS NOT NULL")
-        points = points.merge(unique[["compound_id", "ref_cas", "note"]], on="compound_id", how="left")
+        points = points.merge(unique[["compound_id", "ref_cas", "note", "name_conflict"]], on="compound_id", how="left")
         ask = pd.DataFrame({"key": points["_row"], "cas": points["ref_cas"], "t": points["t"]}).dropna()
         cache["vp"] = (points, cache["reference"].vapor_pressure(ask))
     return cache["vp"]

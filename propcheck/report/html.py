@@ -102,7 +102,7 @@ def _summary(data: ReportData) -> str:
             f'up to its first ";".</p></div></div>')
 
 
-TABLE_CAP = 5000  # findings rows in report.html (worst first); all of them are in findings.csv / .json
+TABLE_CAP = 2000  # findings rows in report.html (worst first); all of them are in findings.csv / .json
 
 
 def _findings(data: ReportData) -> str:

@@ -27,7 +27,9 @@ Method
     database value. Warning when ``z > warn_z``; error when ``z > error_z``
     and at least ``min_sources_for_error`` kept sources each disagree with
     the database value beyond ``error_z`` and no source supports it (within
-    ``warn_z``); otherwise a warning, naming any supporting source.
+    ``warn_z``); otherwise a warning, naming any supporting source. When the
+    name points to another compound than the CAS, a warning at most (the
+    CAS may be what is wrong).
 
 Parameters
     warn_z
@@ -136,7 +138,9 @@ def check(db, params) -> list[Finding]:
     flagged["severity"] = np.where(
         (flagged["z"] > params["error_z"]) & (flagged["n_disagree"] >= params["min_sources_for_error"])
         & (flagged["n_support"] == 0), "error", "warning")
-    flagged = flagged.merge(ident[["row", "compound_id", "source", "note"]], left_on="key", right_on="row")
+    flagged = flagged.merge(ident[["row", "compound_id", "source", "note", "name_conflict"]], left_on="key", right_on="row")
+    # the name points to another compound than the CAS: the CAS may be what is wrong, not the value
+    flagged["severity"] = np.where(flagged["name_conflict"], "warning", flagged["severity"])
     slips = _slips(flagged)
     wanted = per.merge(flagged[["key", "property"]], on=["key", "property"])
     text = _listing(wanted)
@@ -151,6 +155,8 @@ def check(db, params) -> list[Finding]:
             spread = f"; sources disagree among themselves (spread {rec.spread:.3g} {unit}, counted in the tolerance)"
         if rec.n_support:
             spread += "; supported by " + support_names + ", so not an error"
+        if rec.name_conflict:
+            spread += "; the name points to another compound (identity-mismatch), so the CAS may be wrong instead"
         message = (f"{rec.property} = {rec.db_value:.6g} {unit} is off the reference consensus "
                    f"{rec.consensus:.6g} {unit} (z = {rec.z:.3g}; {int(rec.n_disagree)} of {int(rec.n_sources)} "
                    f"sources disagree beyond z {params['error_z']:g}; {rec.note}){spread}. Sources: {listing}")

@@ -110,7 +110,7 @@ def check(db, params) -> pd.DataFrame:
     for name, rec in scattered.iterrows():
         out.append({"rule": RULE.id, "severity": "info", "table": "compounds", "compound_id": None, "column": "family",
                     "observed": name, "message": f"family {name!r} does not follow a smooth trend ({rec['mean']:.0%} of "
-                    f"{rec['size']} judged members are off it): not judged as a homologous series"})
+                    f"{int(rec['size'])} judged members are off it): not judged as a homologous series"})
     skip = np.isin(family, scattered.index.to_numpy())
     rows, cols = [], []
     for column in TREND_COLUMNS:

@@ -72,7 +72,7 @@ def _critical_point_in_doubt(db, cv) -> np.ndarray:
     gsel, free = cv.free_fit_near_critical(settings["min_tr"])
     if free is None:
         return doubt
-    ratio = np.exp(free.ln_p(cv.tc[gsel], np.arange(len(gsel)))) / cv.pc[gsel]
+    ratio = np.exp(free.ln_p(cv.tc[gsel], gsel)) / cv.pc[gsel]
     doubt[gsel] = np.isfinite(ratio) & ((ratio < settings["warn_low"]) | (ratio > settings["warn_high"]))
     return doubt
 

@@ -87,17 +87,17 @@ def check(db, params):
     if free is None:
         return None
     reach = cv.fit.t_max / cv.tc
-    p_tc = np.exp(free.ln_p(cv.tc[gsel], np.arange(len(gsel))))
+    p_tc = np.exp(free.ln_p(cv.tc[gsel], gsel))
     ratio = p_tc / cv.pc[gsel]
     # Antoine and Clausius-Clapeyron extrapolate less well than Riedel: their bands are widened
-    power = np.where(free.form == RIEDEL, 1.0, params["short_form_power"])
+    power = np.where(free.form[gsel] == RIEDEL, 1.0, params["short_form_power"])
     warn_low, warn_high = params["warn_low"] ** power, params["warn_high"] ** power
     error_low, error_high = params["error_low"] ** power, params["error_high"] ** power
     bad = np.isfinite(ratio) & ((ratio < warn_low) | (ratio > warn_high))
     if not bad.any():
         return None
     rows = []
-    t_reach = free.t_at(cv.pc[gsel], np.arange(len(gsel)))
+    t_reach = free.t_at(cv.pc[gsel], gsel)
     p_text, _ = pressure_slip(cv.pc[gsel], p_tc)
     t_text, t_fixed = temperature_slip(cv.tc[gsel], t_reach, abs_tol=2.0)
     for j in np.nonzero(bad)[0]:
@@ -112,7 +112,7 @@ def check(db, params):
             if near:
                 column, suggestion = "tc", f"tc: transposed digits? {near[0]:.6g} K"
         severity = "error" if (ratio[j] < error_low[j] or ratio[j] > error_high[j]) else "warning"
-        form = FORM_TITLES.get(FORMS[free.form[j]], "free")
+        form = FORM_TITLES.get(FORMS[free.form[gi]], "free")
         reach_text = f"; it reaches pc at {t_reach[j]:.6g} K" if np.isfinite(t_reach[j]) else ""
         rows.append({
             "rule": RULE.id, "severity": severity, "table": "compounds", "compound_id": cv.ids[gi], "column": column,
@@ -120,8 +120,8 @@ def check(db, params):
             "expected": float(p_tc[j]) if column == "pc" else (float(t_reach[j]) if np.isfinite(t_reach[j]) else None),
             "tolerance": f"p(tc)/pc in [{warn_low[j]:.3g}, {warn_high[j]:.3g}]",
             "suggestion": suggestion or "tc or pc does not suit the points near the critical point; check both",
-            "reference": f"{form} fit of {int(free.n_points[j])} points extrapolated to tc",
-            "message": (f"the {form} fit of {int(free.n_points[j])} points (up to Tr = {reach[gi]:.2f}) gives "
+            "reference": f"{form} fit of {int(free.n_points[gi])} points extrapolated to tc",
+            "message": (f"the {form} fit of {int(free.n_points[gi])} points (up to Tr = {reach[gi]:.2f}) gives "
                         f"{p_tc[j]:.4g} Pa at tc = {cv.tc[gi]:.6g} K, {ratio[j]:.2f}x pc = {cv.pc[gi]:.4g} Pa{reach_text}"),
             "row": int(cv.c_row[gi]), "source": cv.c_source[gi],
         })

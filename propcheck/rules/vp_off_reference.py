@@ -20,7 +20,8 @@ Method
     tolerance); ``z = |ln p - c| / sqrt(u_db^2 + u_c^2)`` with relative
     standard uncertainties (references note C18). Warning above ``warn_z``;
     error above ``error_z`` when at least ``min_sources_for_error`` sources
-    each disagree beyond it and none supports the point (within ``warn_z``).
+    each disagree beyond it and none supports the point (within ``warn_z``),
+    and the compound's name does not point to another compound than its CAS.
 
 Parameters
     warn_z
@@ -115,8 +116,9 @@ def check(db, params) -> list[Finding]:
     if flagged.empty:
         return []
     expected = np.exp(flagged["consensus"].to_numpy(dtype=float))
+    conflict = flagged["name_conflict"].astype(object).fillna(False).astype(bool).to_numpy()
     error = ((flagged["z"] > params["error_z"]) & (flagged["n_disagree"] >= params["min_sources_for_error"])
-             & (flagged["n_support"] == 0))
+             & (flagged["n_support"] == 0) & ~conflict)
     slip = pressure_slip(flagged["p"].to_numpy(dtype=float), expected)[0]
     groups = {k: g for k, g in per[per["key"].isin(flagged["key"])].groupby("key")}
     findings = []
@@ -129,6 +131,8 @@ def check(db, params) -> list[Finding]:
             spread = "; sources disagree among themselves: " + ", ".join(src.loc[src["apart"], "source"]) + " stands apart"
         if rec.n_support:
             spread += "; supported by " + ", ".join(src.loc[src["supports"], "source"]) + ", so not an error"
+        if conflict[i]:
+            spread += "; the name points to another compound (identity-mismatch), so the CAS may be wrong instead"
         findings.append(Finding(
             rule=RULE.id, severity="error" if error.iloc[i] else "warning", table="vapor_pressure",
             compound_id=rec.compound_id, column="p", t=float(rec.t), observed=float(rec.p), expected=float(expected[i]),

@@ -131,5 +131,5 @@ def check(db, params):
         "column": "p", "t": cv.t[idx], "observed": cv.p[idx], "expected": expected,
         "tolerance": np.expm1(threshold[idx]), "suggestion": [s or None for s in suggestion],
         "reference": [cv.describe(gi) for gi in g], "message": messages, "row": cv.row[idx],
-        "source": cv.source[idx],
+        "source": cv.point_sources(cv.row[idx]),
     })

@@ -84,6 +84,6 @@ def check(db, params):
             "reference": "Lee-Kesler from tc, pc, omega (median ratio of the series)",
             "message": (f"the {int(cv.fit.n_points[gi])} points lie at {np.exp(cv.cs_log_ratio[gi]):.4g}x the "
                         f"Lee-Kesler estimate from tc, pc, omega (median of {int(cv.cs_points[gi])} points){tb_text}"),
-            "source": cv.source[cv.group == gi][0],
+            "source": cv.c_source[gi],
         })
     return pd.DataFrame(rows)

@@ -68,15 +68,28 @@ def _failures(schema: pa.DataFrameSchema, frame: pd.DataFrame) -> pd.DataFrame:
     return pd.DataFrame(columns=["column", "check", "failure_case", "index"])
 
 
+CHUNK_ROWS = 500_000  # vapor-pressure rows validated at a time, to bound memory
+
+
 def run_schema_stage(db: Database, pack: Pack) -> list[Finding]:
     """Validate ``compounds`` then ``vapor_pressure``; return the findings."""
-    findings: list[Finding] = []
     frame = db.df("SELECT * FROM compounds").set_index("_row", drop=False)
-    findings += _check_table(db, "compounds", frame, build_schema("compounds", pack), pack)
+    findings, reject, null_cells = _check_frame(db, "compounds", frame, build_schema("compounds", pack), pack)
+    _apply(db, "compounds", reject, null_cells)
     if db.has("vapor_pressure"):
         known = {r[0] for r in db.con.execute("SELECT compound_id FROM compounds WHERE compound_id IS NOT NULL").fetchall()}
-        vp = db.df("SELECT * FROM vapor_pressure").set_index("_row", drop=False)
-        findings += _check_table(db, "vapor_pressure", vp, build_schema("vapor_pressure", pack, known), pack)
+        schema = build_schema("vapor_pressure", pack, known)
+        reject, null_cells = set(), {}
+        columns = ", ".join(["_row", *MODELS["vapor_pressure"].to_schema().columns])
+        reader = db.con.sql(f"SELECT {columns} FROM vapor_pressure").to_arrow_reader(CHUNK_ROWS)
+        for batch in reader:
+            chunk = batch.to_pandas().set_index("_row", drop=False)
+            found, chunk_reject, chunk_null = _check_frame(db, "vapor_pressure", chunk, schema, pack)
+            findings += found
+            reject |= chunk_reject
+            for column, rows in chunk_null.items():
+                null_cells.setdefault(column, set()).update(rows)
+        _apply(db, "vapor_pressure", reject, null_cells)
     return findings
 
 
@@ -85,7 +98,8 @@ def _label(db: Database, table: str) -> str:
     return Path(origin).name if db.kind == "folder" else origin
 
 
-def _check_table(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pack) -> list[Finding]:
+def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pack):
+    """Validate one frame; return its findings, the rows to reject and the cells to withhold."""
     failures = _failures(schema, frame)
     label = _label(db, table)
     findings: list[Finding] = []
@@ -163,8 +177,7 @@ def _check_table(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
     else:
         for column in ("compound_id", "t", "p"):
             reject_rows.update(int(r) for r in frame[frame[column].isna()]["_row"])
-    _apply(db, table, reject_rows, null_cells)
-    return findings
+    return findings, reject_rows, null_cells
 
 
 def _unit(table: str, column: str) -> str:
@@ -175,6 +188,7 @@ def _unit(table: str, column: str) -> str:
 
 
 def _apply(db: Database, table: str, reject_rows: set[int], null_cells: dict[str, set[int]]) -> None:
+    """Delete rejected rows and null withheld cells in the working table; count both."""
     info = db.tables[table]
     if reject_rows:
         rows = pd.DataFrame({"_row": sorted(reject_rows)})
