@@ -72,7 +72,18 @@ VAPOR_PRESSURE = TableSpec(
     ),
 )
 
-TABLES: dict[str, TableSpec] = {t.name: t for t in (COMPOUNDS, VAPOR_PRESSURE)}
+BOILING_POINTS = TableSpec(
+    "boiling_points",
+    required=False,
+    columns=(
+        Column("compound_id", "must exist in compounds", required=True),
+        _num("p", "pressure at which the compound boils", "Pa", required=True),
+        _num("t", "boiling temperature at p", "K", required=True),
+        Column("source", "where the entry came from (catalogue, handbook)"),
+    ),
+)
+
+TABLES: dict[str, TableSpec] = {t.name: t for t in (COMPOUNDS, VAPOR_PRESSURE, BOILING_POINTS)}
 
 
 def numeric_columns(table: str) -> list[str]:

@@ -48,6 +48,7 @@ class Context:
     expected: dict[str, np.ndarray] = field(default_factory=dict)
     tolerance: dict[str, np.ndarray] = field(default_factory=dict)
     neighbours: dict[str, np.ndarray] = field(default_factory=dict)
+    x: np.ndarray | None = None  # ln(carbon number), else ln(molar mass)
     vp_tmax: np.ndarray | None = None
     vp_tb: np.ndarray | None = None
 
@@ -113,6 +114,7 @@ def build_context(db, params: dict | None = None) -> Context:
     code = np.where((family == "") | family.isin(not_series), -1, code_values)
     ctx = Context(frame=frame, values=values, formula_mass=mass, carbon=carbon, family_code=code)
     x = _family_x(frame, carbon, np.where(np.isfinite(values["molar_mass"]), values["molar_mass"], mass), code)
+    ctx.x = x
     # irregular heads: the first members of some series are neither judged nor used as neighbours
     heads = {name.lower(): count for name, count in p["irregular_heads"].items()}
     count = family.map(lambda f: heads.get(f, p["head_members"])).to_numpy()

@@ -143,7 +143,7 @@ def _report_bad_cells(db, spec, raw, chosen, types, info, table_map) -> None:
     typed = {c.name: types[chosen[c.name]].upper().startswith(NUMERIC_TYPES) for c in numeric}
     bad = {c.name: _bad(_q(chosen[c.name]), typed[c.name], raw.csv_decimal) for c in numeric}
     t_expr = "NULL"
-    if spec.name == "vapor_pressure":  # findings on a point carry its temperature
+    if spec.name in ("vapor_pressure", "boiling_points"):  # findings on a point carry its temperature
         conv = _conversion(table_map.units, "t")
         parsed = _parsed(_q(chosen["t"]), typed["t"], raw.csv_decimal)
         value = f"({parsed}) * {conv.scale!r} + {conv.offset!r}" if conv else parsed

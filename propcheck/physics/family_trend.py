@@ -13,7 +13,7 @@ from __future__ import annotations
 
 import numpy as np
 
-__all__ = ["loo_quadratic", "trend_outliers"]
+__all__ = ["loo_quadratic", "order_breaks", "trend_outliers"]
 
 
 def _windows(group, x, pool, half_width):
@@ -137,3 +137,52 @@ def trend_outliers(group, x, y, valid, tol, half_width: int = 3, min_points: int
     expected, nb = loo_quadratic(group, x, y, valid & ~suspect, half_width, min_points)
     z = np.where(valid, np.abs(y - expected) / tol, np.nan)
     return expected, z, nb
+
+
+def order_breaks(group, x, y, valid, rising: bool = True):
+    """Members that break a family's monotonic order on every side they have a neighbour.
+
+    Isomers (equal ``x``) are collapsed to their median; a member breaks on
+    the left when it does not exceed the previous carbon number's median
+    (rising) and on the right when it does not stay below the next one's.
+    One wrong member breaks on both sides, its neighbours on one side only.
+
+    Returns
+    -------
+    breaks : ndarray of bool
+    previous, following : ndarray of float
+        Medians of the neighbouring carbon numbers (NaN at the ends).
+
+    Examples
+    --------
+    n-alkanes C6-C10 normal boiling points (CRC Handbook 95th ed.) with
+    n-decane's 447.25 K stored in degC (174.1):
+
+    >>> tb = np.array([341.87, 371.53, 398.77, 423.95, 174.1])
+    >>> b, _, _ = order_breaks(np.zeros(5, int), np.log([6, 7, 8, 9, 10.0]), tb, np.ones(5, bool))
+    >>> b.tolist()
+    [False, False, False, False, True]
+    """
+    import pandas as pd
+
+    y = np.asarray(y, dtype=float)
+    sign = 1.0 if rising else -1.0
+    valid = np.asarray(valid, dtype=bool) & np.isfinite(y) & np.isfinite(x)
+    frame = pd.DataFrame({"g": np.asarray(group), "x": np.round(np.asarray(x, dtype=float), 9), "y": sign * y})[valid]
+    levels = frame.groupby(["g", "x"])["y"].median().reset_index().sort_values(["g", "x"])
+    levels["prev"] = levels.groupby("g")["y"].shift(1)
+    levels["next"] = levels.groupby("g")["y"].shift(-1)
+    merged = frame.reset_index().merge(levels[["g", "x", "prev", "next"]], on=["g", "x"]).set_index("index")
+    left = merged["prev"].notna()
+    right = merged["next"].notna()
+    bad_left = left & (merged["y"] <= merged["prev"])
+    bad_right = right & (merged["y"] >= merged["next"])
+    breaks_frame = (left | right) & (bad_left | ~left) & (bad_right | ~right)
+    breaks = np.zeros(len(y), dtype=bool)
+    previous = np.full(len(y), np.nan)
+    following = np.full(len(y), np.nan)
+    idx = merged.index.to_numpy()
+    breaks[idx] = breaks_frame.to_numpy()
+    previous[idx] = sign * merged["prev"].to_numpy(dtype=float)
+    following[idx] = sign * merged["next"].to_numpy(dtype=float)
+    return breaks, previous, following

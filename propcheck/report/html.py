@@ -95,11 +95,11 @@ def _summary(data: ReportData) -> str:
           f"{100 * s.share_flagged:.1f} %"] for s in data.scorecard],
     )
     return (f'<div class="kpis">{"".join(kpis)}</div>{verdict}'
-            f'<div class="grid2"><div><h3>Findings by rule</h3>{rules}</div>'
-            f'<div><h3>Compounds with the most findings</h3>{worst}</div>'
-            f'<div><h3>Findings by family</h3>{family}</div>'
-            f'<div><h3>Findings by source</h3>{sources}<p class="note">Records are table rows; a source value counts '
-            f'up to its first ";".</p></div></div>')
+            f'<h3>Findings by rule</h3>{rules}'
+            f'<div class="grid2"><div><h3>Compounds with the most findings</h3>{worst}</div>'
+            f'<div><h3>Findings by family</h3>{family}</div></div>'
+            f'<h3>Findings by source</h3>{sources}<p class="note">Records are table rows; a source value counts '
+            f'up to its first ";".</p>')
 
 
 TABLE_CAP = 2000  # findings rows in report.html (worst first); all of them are in findings.csv / .json

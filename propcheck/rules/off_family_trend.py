@@ -4,7 +4,9 @@ What it checks
     Within each ``family``, tc and tb rise and pc falls smoothly with carbon
     number (or molar mass); a member far from the curve through its
     neighbours is flagged, naming the family, the neighbours and the
-    expected value. A family too small to judge gets one info finding.
+    expected value. Members the trend cannot judge (the ends of a series,
+    small families) are still checked for the monotonic order. A family
+    too small to judge gets one info finding.
 
 Why it matters
     Homologous series are the strongest check a constant has short of a
@@ -69,6 +71,7 @@ import pandas as pd
 from propcheck.diagnose import diagnose, get_context
 from propcheck.diagnose.annotate import UNITS, make_finding
 from propcheck.diagnose.context import TREND_COLUMNS
+from propcheck.physics.family_trend import order_breaks
 from propcheck.rules.base import RuleInfo
 
 RULE = RuleInfo(
@@ -117,8 +120,30 @@ def check(db, params) -> pd.DataFrame:
         for r in np.flatnonzero(np.isfinite(z[column]) & (z[column] > 1) & ~skip):
             rows.append(r)
             cols.append(column)
+    # monotonic order, for members the trend cannot judge (ends, small families)
+    breaking = {}
+    for column in ("tc", "tb", "pc"):
+        member = (ctx.family_code >= 0) & ~skip & ~ctx.judged[column]
+        breaks, prev, nxt = order_breaks(ctx.family_code, ctx.x, ctx.values[column], member | (ctx.family_code >= 0) & ~skip,
+                                         rising=column != "pc")
+        for r in np.flatnonzero(breaks & member):
+            rows.append(r)
+            cols.append(column)
+            breaking[(r, column)] = (prev[r], nxt[r])
     diags = diagnose(ctx, rows, cols) if rows else []
     for r, column, diag in zip(rows, cols, diags):  # loop over findings
+        if (r, column) in breaking:
+            prev, nxt = breaking[(r, column)]
+            unit = UNITS[column]
+            sides = " and ".join(t for t in (f"{prev:.6g}{unit} for the previous carbon number" if np.isfinite(prev) else "",
+                                             f"{nxt:.6g}{unit} for the next" if np.isfinite(nxt) else "") if t)
+            trend = "falls" if column == "pc" else "rises"
+            out.append(make_finding(
+                RULE, ctx, r, column, f"{names[r]} {column} {ctx.values[column][r]:.6g}{unit} breaks the {family[r]} order "
+                f"({column} {trend} with carbon number; {sides})", diag if diag and diag.column == column else None,
+                observed=float(ctx.values[column][r]),
+                reference="monotonic trend along a homologous series (Ambrose & Tsonopoulos 1995)"))
+            continue
         value, expected = ctx.values[column][r], ctx.expected_value(column, r)
         nb = [names[i] for i in ctx.neighbours[column][r] if i >= 0]
         unit = UNITS[column]

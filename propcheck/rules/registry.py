@@ -38,6 +38,7 @@ RULE_MODULES = (
     "vp_curve_misses_critical_point",
     "omega_off_vp_curve",
     "vp_slope_irregular",
+    "boiling_point_off_curve",
     "identity_mismatch",
     "reference_missing",
     "const_off_reference",

@@ -21,6 +21,8 @@ Parameters
         Table of ``column = [low, high]`` for the compounds table.
     vapor_pressure
         Table of ``column = [low, high]`` for the vapor_pressure table.
+    boiling_points
+        Table of ``column = [low, high]`` for the boiling_points table.
 
 Example finding
     ``compounds row 4, column pc: -3025000 is outside [100000, 200000000] Pa``
@@ -43,5 +45,6 @@ RULE = RuleInfo(
     params={
         "compounds": "inclusive [low, high] per numeric column of compounds, canonical units",
         "vapor_pressure": "inclusive [low, high] per numeric column of vapor_pressure, canonical units",
+        "boiling_points": "inclusive [low, high] per numeric column of boiling_points, canonical units",
     },
 )

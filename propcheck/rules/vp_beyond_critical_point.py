@@ -57,16 +57,20 @@ RULE = RuleInfo(
 )
 
 _SQL = """
-SELECT v.compound_id, v._row AS v_row, v.t, v.p, v.source, c.tc, c.pc, c._row AS c_row, c.source AS c_source,
-       v.t > c.tc + ? AS above_tc,
-       v.p > c.pc * (1 + ?) AS above_pc,
-       count(*) OVER (PARTITION BY v.compound_id) AS n_points,
-       count(*) FILTER (WHERE v.t > c.tc + ?) OVER (PARTITION BY v.compound_id) AS n_above,
-       max(v.t) OVER (PARTITION BY v.compound_id) AS t_max
-FROM vapor_pressure v JOIN compounds c USING (compound_id)
-WHERE c.tc IS NOT NULL OR c.pc IS NOT NULL
-QUALIFY coalesce(above_tc, false) OR coalesce(above_pc, false)
-ORDER BY v.compound_id, v.t
+WITH beyond AS (
+    SELECT v.compound_id, v._row AS v_row, v.t, v.p, v.source, c.tc, c.pc, c._row AS c_row, c.source AS c_source,
+           coalesce(v.t > c.tc + ?, false) AS above_tc,
+           coalesce(v.p > c.pc * (1 + ?), false) AS above_pc
+    FROM vapor_pressure v JOIN compounds c USING (compound_id)
+    WHERE v.t > c.tc + ? OR v.p > c.pc * (1 + ?)
+), series AS (  -- only for compounds with a point beyond the critical point
+    SELECT compound_id, count(*) AS n_points, max(t) AS t_max
+    FROM vapor_pressure WHERE compound_id IN (SELECT compound_id FROM beyond) GROUP BY compound_id
+)
+SELECT b.*, s.n_points, s.t_max,
+       count(*) FILTER (WHERE b.above_tc) OVER (PARTITION BY b.compound_id) AS n_above
+FROM beyond b JOIN series s USING (compound_id)
+ORDER BY b.compound_id, b.t
 """
 
 
@@ -82,7 +86,7 @@ def check(db, params) -> list[Finding]:
     if not db.has("vapor_pressure"):
         return []
     margin, p_margin = params["t_margin"], params["p_relative_margin"]
-    rows = db.df(_SQL, [margin, p_margin, margin])
+    rows = db.df(_SQL, [margin, p_margin, margin, p_margin])
     findings: list[Finding] = []
     blamed_tc: set[str] = set()
     for rec in rows.itertuples(index=False):

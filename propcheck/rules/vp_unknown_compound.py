@@ -1,8 +1,9 @@
 """A vapor-pressure point names a compound that is not in ``compounds``.
 
 What it checks
-    Every ``vapor_pressure.compound_id`` exists in ``compounds`` (among the
-    rows that were kept).
+    Every ``vapor_pressure.compound_id`` and ``boiling_points.compound_id``
+    exists in ``compounds`` (among the rows that were kept). A boiling
+    temperature at a stated pressure is a point of the same curve.
 
 Why it matters
     Orphan points belong to nothing: a renamed or deleted compound, or a typo

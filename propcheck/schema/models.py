@@ -9,7 +9,7 @@ from __future__ import annotations
 import pandera.pandas as pa
 from pandera.typing import Series
 
-__all__ = ["CompoundsModel", "VaporPressureModel"]
+__all__ = ["BoilingPointsModel", "CompoundsModel", "VaporPressureModel"]
 
 
 class CompoundsModel(pa.DataFrameModel):
@@ -43,6 +43,19 @@ class VaporPressureModel(pa.DataFrameModel):
     p: Series[float] = pa.Field(nullable=False, title="vapor pressure", description="Pa, saturation pressure at t")
     source: Series[str] = pa.Field(nullable=True, title="source", description="where the point came from")
     uncertainty: Series[float] = pa.Field(nullable=True, title="uncertainty", description="stated standard uncertainty of p, Pa")
+
+    class Config:
+        strict = False
+        coerce = False
+
+
+class BoilingPointsModel(pa.DataFrameModel):
+    """The optional ``boiling_points`` table: boiling temperatures at stated pressures."""
+
+    compound_id: Series[str] = pa.Field(nullable=False, title="compound id", description="must exist in compounds")
+    p: Series[float] = pa.Field(nullable=False, title="pressure", description="Pa")
+    t: Series[float] = pa.Field(nullable=False, title="boiling temperature", description="K, at p")
+    source: Series[str] = pa.Field(nullable=True, title="source", description="catalogue or handbook")
 
     class Config:
         strict = False

@@ -17,11 +17,12 @@ from propcheck.database import Database
 from propcheck.findings import Finding
 from propcheck.identifiers import cas_check_digit, cas_check_digit_ok, cas_format_ok
 from propcheck.rules.pack import Pack
-from propcheck.schema.models import CompoundsModel, VaporPressureModel
+from propcheck.schema.models import BoilingPointsModel, CompoundsModel, VaporPressureModel
 
 __all__ = ["build_schema", "run_schema_stage"]
 
-MODELS = {"compounds": CompoundsModel, "vapor_pressure": VaporPressureModel}
+MODELS = {"compounds": CompoundsModel, "vapor_pressure": VaporPressureModel, "boiling_points": BoilingPointsModel}
+POINT_TABLES = ("vapor_pressure", "boiling_points")  # rows that each state one (t, p) of a compound
 
 
 def _cas_unique(cas: pd.Series) -> pd.Series:
@@ -45,7 +46,7 @@ def build_schema(table: str, pack: Pack, known_ids: set[str] | None = None) -> p
             checks.setdefault("cas", []).append(pa.Check(cas_check_digit_ok, name="cas-check-digit"))
         if pack.enabled("cas-shared-by-ids"):
             checks.setdefault("cas", []).append(pa.Check(_cas_unique, name="cas-shared-by-ids"))
-    if table == "vapor_pressure" and known_ids is not None and pack.enabled("vp-unknown-compound"):
+    if table in POINT_TABLES and known_ids is not None and pack.enabled("vp-unknown-compound"):
         ids = pd.Index(sorted(known_ids))
         checks.setdefault("compound_id", []).append(
             pa.Check(lambda s: s.isna() | s.isin(ids), name="vp-unknown-compound")
@@ -76,20 +77,22 @@ def run_schema_stage(db: Database, pack: Pack) -> list[Finding]:
     frame = db.df("SELECT * FROM compounds").set_index("_row", drop=False)
     findings, reject, null_cells = _check_frame(db, "compounds", frame, build_schema("compounds", pack), pack)
     _apply(db, "compounds", reject, null_cells)
-    if db.has("vapor_pressure"):
-        known = {r[0] for r in db.con.execute("SELECT compound_id FROM compounds WHERE compound_id IS NOT NULL").fetchall()}
-        schema = build_schema("vapor_pressure", pack, known)
+    known = {r[0] for r in db.con.execute("SELECT compound_id FROM compounds WHERE compound_id IS NOT NULL").fetchall()}
+    for table in POINT_TABLES:
+        if not db.has(table):
+            continue
+        schema = build_schema(table, pack, known)
         reject, null_cells = set(), {}
-        columns = ", ".join(["_row", *MODELS["vapor_pressure"].to_schema().columns])
-        reader = db.con.sql(f"SELECT {columns} FROM vapor_pressure").to_arrow_reader(CHUNK_ROWS)
+        columns = ", ".join(["_row", *MODELS[table].to_schema().columns])
+        reader = db.con.sql(f"SELECT {columns} FROM {table}").to_arrow_reader(CHUNK_ROWS)
         for batch in reader:
             chunk = batch.to_pandas().set_index("_row", drop=False)
-            found, chunk_reject, chunk_null = _check_frame(db, "vapor_pressure", chunk, schema, pack)
+            found, chunk_reject, chunk_null = _check_frame(db, table, chunk, schema, pack)
             findings += found
             reject |= chunk_reject
             for column, rows in chunk_null.items():
                 null_cells.setdefault(column, set()).update(rows)
-        _apply(db, "vapor_pressure", reject, null_cells)
+        _apply(db, table, reject, null_cells)
     return findings
 
 
@@ -115,7 +118,7 @@ def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
                 rule=rule, severity=pack.rules[rule].severity, table=table,
                 compound_id=record["compound_id"], column=column, row=int(row),
                 source=record.get("source"), message=f"{label} row {row}, column {column}: {message}",
-                t=float(record["t"]) if table == "vapor_pressure" and pd.notna(record["t"]) else None,
+                t=float(record["t"]) if table in POINT_TABLES and pd.notna(record["t"]) else None,
                 **extra,
             )
         )
@@ -125,7 +128,7 @@ def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
             raise RuntimeError(f"schema check {check} on {table}.{column} failed without a row")
         row = int(row)
         if check == "not_nullable":
-            if column in required and table == "vapor_pressure" or column == "compound_id":
+            if column in required and table in POINT_TABLES or column == "compound_id":
                 reject_rows.add(row)
             if (table, row, column) not in db.rejected_cells:
                 new("required-value-missing", row, column, f"required value {column} is empty")
@@ -133,7 +136,7 @@ def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
             continue  # handled below, keeping the first occurrence
         elif str(check).startswith("range:"):
             low, high = ranges[column]
-            if table == "vapor_pressure" and column in ("t", "p"):
+            if table in POINT_TABLES and column in ("t", "p"):
                 reject_rows.add(row)
             else:
                 null_cells.setdefault(column, set()).add(row)

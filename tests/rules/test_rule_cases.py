@@ -14,7 +14,7 @@ from pathlib import Path
 import pytest
 
 from propcheck.pipeline import run_check
-from tests.conftest import write_db
+from tests.conftest import write_db, write_table
 
 CASES = Path(__file__).parent / "cases"
 
@@ -33,6 +33,8 @@ def _key(compound_id, column, t):
 @pytest.mark.parametrize(("rule_id", "case"), list(_cases()))
 def test_rule_case(rule_id, case, tmp_path):
     folder = write_db(tmp_path / "db", case["compounds"], case.get("vapor_pressure"))
+    if "boiling_points" in case:
+        write_table(folder, "boiling_points", case["boiling_points"])
     pack = None
     if "pack" in case:
         pack = tmp_path / "pack.toml"
