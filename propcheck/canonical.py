@@ -83,7 +83,32 @@ BOILING_POINTS = TableSpec(
     ),
 )
 
-TABLES: dict[str, TableSpec] = {t.name: t for t in (COMPOUNDS, VAPOR_PRESSURE, BOILING_POINTS)}
+VP_EQUATIONS = TableSpec(
+    "vp_equations",
+    required=False,
+    columns=(
+        Column("compound_id", "must exist in compounds", required=True),
+        Column("form", "antoine | antoine_extended | wagner_25_5 | wagner_3_6 | clausius_clapeyron", required=True),
+        _num("a", "first coefficient", "dimensionless", required=True),
+        _num("b", "second coefficient", "dimensionless", required=True),
+        _num("c", "third coefficient (Antoine C, Wagner c)", "dimensionless"),
+        _num("d", "fourth coefficient (Wagner d)", "dimensionless"),
+        _num("e", "extended Antoine E", "dimensionless"),
+        _num("f", "extended Antoine F", "dimensionless"),
+        _num("n", "extended Antoine exponent n", "dimensionless"),
+        _num("t0", "extended Antoine t0, degC", "dimensionless"),
+        _num("eq_tc", "Wagner: the tc the coefficients were fitted with, K", "dimensionless"),
+        _num("eq_pc", "Wagner: the pc the coefficients were fitted with, in p_unit", "dimensionless"),
+        _num("tmin", "lower end of the validity range, in t_unit", "dimensionless", required=True),
+        _num("tmax", "upper end of the validity range, in t_unit", "dimensionless", required=True),
+        Column("p_unit", "unit of p the coefficients give (pint: Pa, kPa, bar, mmHg, ...)", required=True),
+        Column("t_unit", "unit of T the coefficients take (K or degC)", required=True),
+        Column("log_base", "10 or e (Antoine and Clausius-Clapeyron forms)"),
+        Column("source", "where the equation came from"),
+    ),
+)
+
+TABLES: dict[str, TableSpec] = {t.name: t for t in (COMPOUNDS, VAPOR_PRESSURE, BOILING_POINTS, VP_EQUATIONS)}
 
 
 def numeric_columns(table: str) -> list[str]:

@@ -285,7 +285,7 @@ def seed_problems(comps, points):
         p["p"] = fmt(float(p["p"]) / 1000.0, 6)
         p["uncertainty"] = fmt(float(p["uncertainty"]) / 1000.0, 2)
     add("vp-series-kpa", "whole series in kPa (monotonic; misses tb)", "vapor_pressure",
-        cid, "p", "later", note="every p of the compound is 1000x too low")
+        cid, "p", "vapor-pressure", note="every p of the compound is 1000x too low")
     assert cas_check_ok("108-21-4")
     change("propyl acetate", "cas", "108-21-4", "cas-other-compound",
            "valid CAS of another compound (isopropyl acetate)", "constants", str,
@@ -312,7 +312,7 @@ def write_all(comps, points, probs):
             w.writeheader()
             w.writerows(rows)
     lines = ["# Problems seeded into delivery BDS-2026-11 by make_sample_db.py.",
-             "# detectable_by: schema | physics | constants (compound-constant rules) | later (deeper checks).",
+             "# detectable_by: schema | physics | constants (compound-constant rules) | vapor-pressure (curve rules) | later.",
              "# severity: the least severity the finding must have (default error)."]
     for pr in probs:
         lines.append("\n[[problem]]")

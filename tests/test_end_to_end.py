@@ -11,7 +11,7 @@ import pytest
 from tests.conftest import SAMPLE_DB
 
 SEEDED = tomllib.loads((SAMPLE_DB / "seeded_problems.toml").read_text(encoding="utf-8"))["problem"]
-IN_SCOPE = [p for p in SEEDED if p["detectable_by"] in ("schema", "physics", "constants")]
+IN_SCOPE = [p for p in SEEDED if p["detectable_by"] in ("schema", "physics", "constants", "vapor-pressure")]
 
 
 @pytest.fixture(scope="module")

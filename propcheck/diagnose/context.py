@@ -49,6 +49,7 @@ class Context:
     tolerance: dict[str, np.ndarray] = field(default_factory=dict)
     neighbours: dict[str, np.ndarray] = field(default_factory=dict)
     x: np.ndarray | None = None  # ln(carbon number), else ln(molar mass)
+    head: np.ndarray | None = None  # irregular heads of series: neither judged nor used
     vp_tmax: np.ndarray | None = None
     vp_tb: np.ndarray | None = None
 
@@ -120,6 +121,7 @@ def build_context(db, params: dict | None = None) -> Context:
     count = family.map(lambda f: heads.get(f, p["head_members"])).to_numpy()
     rank = pd.Series(x).groupby(code).rank(method="dense").to_numpy()
     head = (code >= 0) & (rank <= count)
+    ctx.head = head
     has_isomer = pd.Series(x).groupby([code, np.round(x, 9)]).transform("size").to_numpy() > 1
     skip_omega = family.isin({s.lower() for s in p["skip_omega"]}).to_numpy()
     for column in TREND_COLUMNS:

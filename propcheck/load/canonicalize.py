@@ -54,8 +54,10 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
     table_map = mapping.table(spec.name)
     raw_name = f"raw_{spec.name}"
     try:
-        # a view, not a copy: the source is read once to build the table and once to report bad cells
-        con.execute(f"CREATE TEMP VIEW {raw_name} AS SELECT row_number() OVER () AS _row, * FROM {raw.relation}")
+        # files are read through a view (no copy: read once for the table, once for bad cells);
+        # a driver's Arrow stream can be read only once, so it is copied
+        raw_kind = "VIEW" if raw.keep is None else "TABLE"
+        con.execute(f"CREATE TEMP {raw_kind} {raw_name} AS SELECT row_number() OVER () AS _row, * FROM {raw.relation}")
         described = con.execute(f"DESCRIBE {raw_name}").fetchall()
     except duckdb.Error as exc:
         reason = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
@@ -111,7 +113,7 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
     if info.rows_read == 0 and spec.required:
         raise UsageError("table has no rows", file=raw.origin, table=spec.name)
     _report_bad_cells(db, spec, raw, chosen, types, info, table_map)
-    con.execute(f"DROP VIEW {raw_name}")
+    con.execute(f"DROP {raw_kind} {raw_name}")
     db.tables[spec.name] = info
 
 

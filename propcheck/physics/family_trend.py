@@ -150,6 +150,8 @@ def order_breaks(group, x, y, valid, rising: bool = True):
     Returns
     -------
     breaks : ndarray of bool
+    any_side : ndarray of bool
+        Out of order with at least one neighbour (one of a broken pair).
     previous, following : ndarray of float
         Medians of the neighbouring carbon numbers (NaN at the ends).
 
@@ -159,7 +161,7 @@ def order_breaks(group, x, y, valid, rising: bool = True):
     n-decane's 447.25 K stored in degC (174.1):
 
     >>> tb = np.array([341.87, 371.53, 398.77, 423.95, 174.1])
-    >>> b, _, _ = order_breaks(np.zeros(5, int), np.log([6, 7, 8, 9, 10.0]), tb, np.ones(5, bool))
+    >>> b, _, _, _ = order_breaks(np.zeros(5, int), np.log([6, 7, 8, 9, 10.0]), tb, np.ones(5, bool))
     >>> b.tolist()
     [False, False, False, False, True]
     """
@@ -179,10 +181,12 @@ def order_breaks(group, x, y, valid, rising: bool = True):
     bad_right = right & (merged["y"] >= merged["next"])
     breaks_frame = (left | right) & (bad_left | ~left) & (bad_right | ~right)
     breaks = np.zeros(len(y), dtype=bool)
+    any_side = np.zeros(len(y), dtype=bool)
     previous = np.full(len(y), np.nan)
     following = np.full(len(y), np.nan)
     idx = merged.index.to_numpy()
     breaks[idx] = breaks_frame.to_numpy()
+    any_side[idx] = (bad_left | bad_right).to_numpy()
     previous[idx] = sign * merged["prev"].to_numpy(dtype=float)
     following[idx] = sign * merged["next"].to_numpy(dtype=float)
-    return breaks, previous, following
+    return breaks, any_side, previous, following

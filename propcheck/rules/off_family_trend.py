@@ -95,6 +95,11 @@ RULE = RuleInfo(
 )
 
 
+def _rows_of(rows, cols, column) -> set:
+    """Rows already reported for ``column``."""
+    return {r for r, c in zip(rows, cols) if c == column}
+
+
 def check(db, params) -> pd.DataFrame:
     ctx = get_context(db, params)
     names = ctx.frame["name"].astype(object).fillna("").to_numpy()
@@ -123,13 +128,23 @@ def check(db, params) -> pd.DataFrame:
     # monotonic order, for members the trend cannot judge (ends, small families)
     breaking = {}
     for column in ("tc", "tb", "pc"):
-        member = (ctx.family_code >= 0) & ~skip & ~ctx.judged[column]
-        breaks, prev, nxt = order_breaks(ctx.family_code, ctx.x, ctx.values[column], member | (ctx.family_code >= 0) & ~skip,
-                                         rising=column != "pc")
-        for r in np.flatnonzero(breaks & member):
-            rows.append(r)
-            cols.append(column)
-            breaking[(r, column)] = (prev[r], nxt[r])
+        series = (ctx.family_code >= 0) & ~skip & ~ctx.head  # pc falls from ethane on, not from methane
+        member = series & ~ctx.judged[column]
+        breaks, any_side, prev, nxt = order_breaks(ctx.family_code, ctx.x, ctx.values[column], series,
+                                                   rising=column != "pc")
+        pair = np.flatnonzero(any_side & series)
+        if len(pair) == 0:
+            continue
+        # blame, within each broken pair, the member a slip repair explains; else one breaking on all sides
+        repaired = {r: d for r, d in zip(pair, diagnose(ctx, pair, [column] * len(pair))) if d is not None and d.column == column}
+        families_repaired = {ctx.family_code[r] for r in repaired}
+        for r in pair:
+            if r in repaired or (breaks[r] and member[r] and ctx.family_code[r] not in families_repaired):
+                if not member[r] and r in _rows_of(rows, cols, column):
+                    continue
+                rows.append(r)
+                cols.append(column)
+                breaking[(r, column)] = (prev[r], nxt[r])
     diags = diagnose(ctx, rows, cols) if rows else []
     for r, column, diag in zip(rows, cols, diags):  # loop over findings
         if (r, column) in breaking:

@@ -39,6 +39,8 @@ RULE_MODULES = (
     "omega_off_vp_curve",
     "vp_slope_irregular",
     "boiling_point_off_curve",
+    "vp_equation_invalid",
+    "vp_equation_off_data",
     "identity_mismatch",
     "reference_missing",
     "const_off_reference",

@@ -9,7 +9,7 @@ from __future__ import annotations
 import pandera.pandas as pa
 from pandera.typing import Series
 
-__all__ = ["BoilingPointsModel", "CompoundsModel", "VaporPressureModel"]
+__all__ = ["BoilingPointsModel", "CompoundsModel", "VaporPressureModel", "VpEquationsModel"]
 
 
 class CompoundsModel(pa.DataFrameModel):
@@ -56,6 +56,23 @@ class BoilingPointsModel(pa.DataFrameModel):
     p: Series[float] = pa.Field(nullable=False, title="pressure", description="Pa")
     t: Series[float] = pa.Field(nullable=False, title="boiling temperature", description="K, at p")
     source: Series[str] = pa.Field(nullable=True, title="source", description="catalogue or handbook")
+
+    class Config:
+        strict = False
+        coerce = False
+
+
+class VpEquationsModel(pa.DataFrameModel):
+    """The optional ``vp_equations`` table: stored vapor-pressure correlations (see the README)."""
+
+    compound_id: Series[str] = pa.Field(nullable=False, title="compound id", description="must exist in compounds")
+    form: Series[str] = pa.Field(nullable=False, title="form", description="published form of the equation")
+    a: Series[float] = pa.Field(nullable=False, title="A", description="first coefficient")
+    b: Series[float] = pa.Field(nullable=False, title="B", description="second coefficient")
+    tmin: Series[float] = pa.Field(nullable=False, title="Tmin", description="lower end of the range, in t_unit")
+    tmax: Series[float] = pa.Field(nullable=False, title="Tmax", description="upper end of the range, in t_unit")
+    p_unit: Series[str] = pa.Field(nullable=False, title="unit of p", description="pint unit the coefficients give p in")
+    t_unit: Series[str] = pa.Field(nullable=False, title="unit of T", description="K or degC")
 
     class Config:
         strict = False

@@ -17,12 +17,18 @@ from propcheck.database import Database
 from propcheck.findings import Finding
 from propcheck.identifiers import cas_check_digit, cas_check_digit_ok, cas_format_ok
 from propcheck.rules.pack import Pack
-from propcheck.schema.models import BoilingPointsModel, CompoundsModel, VaporPressureModel
+from propcheck.schema.models import BoilingPointsModel, CompoundsModel, VaporPressureModel, VpEquationsModel
 
 __all__ = ["build_schema", "run_schema_stage"]
 
-MODELS = {"compounds": CompoundsModel, "vapor_pressure": VaporPressureModel, "boiling_points": BoilingPointsModel}
+MODELS = {
+    "compounds": CompoundsModel,
+    "vapor_pressure": VaporPressureModel,
+    "boiling_points": BoilingPointsModel,
+    "vp_equations": VpEquationsModel,
+}
 POINT_TABLES = ("vapor_pressure", "boiling_points")  # rows that each state one (t, p) of a compound
+CHILD_TABLES = (*POINT_TABLES, "vp_equations")  # tables whose rows belong to a compound
 
 
 def _cas_unique(cas: pd.Series) -> pd.Series:
@@ -35,7 +41,7 @@ def build_schema(table: str, pack: Pack, known_ids: set[str] | None = None) -> p
     schema = MODELS[table].to_schema()
     checks: dict[str, list[pa.Check]] = {}
     if pack.enabled("value-out-of-range"):
-        for column, (low, high) in pack.params("value-out-of-range")[table].items():
+        for column, (low, high) in pack.params("value-out-of-range").get(table, {}).items():
             checks.setdefault(column, []).append(
                 pa.Check(lambda s, lo=low, hi=high: s.between(lo, hi), name=f"range:{column}")
             )
@@ -46,7 +52,7 @@ def build_schema(table: str, pack: Pack, known_ids: set[str] | None = None) -> p
             checks.setdefault("cas", []).append(pa.Check(cas_check_digit_ok, name="cas-check-digit"))
         if pack.enabled("cas-shared-by-ids"):
             checks.setdefault("cas", []).append(pa.Check(_cas_unique, name="cas-shared-by-ids"))
-    if table in POINT_TABLES and known_ids is not None and pack.enabled("vp-unknown-compound"):
+    if table in CHILD_TABLES and known_ids is not None and pack.enabled("vp-unknown-compound"):
         ids = pd.Index(sorted(known_ids))
         checks.setdefault("compound_id", []).append(
             pa.Check(lambda s: s.isna() | s.isin(ids), name="vp-unknown-compound")
@@ -78,7 +84,7 @@ def run_schema_stage(db: Database, pack: Pack) -> list[Finding]:
     findings, reject, null_cells = _check_frame(db, "compounds", frame, build_schema("compounds", pack), pack)
     _apply(db, "compounds", reject, null_cells)
     known = {r[0] for r in db.con.execute("SELECT compound_id FROM compounds WHERE compound_id IS NOT NULL").fetchall()}
-    for table in POINT_TABLES:
+    for table in CHILD_TABLES:
         if not db.has(table):
             continue
         schema = build_schema(table, pack, known)
@@ -109,7 +115,7 @@ def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
     reject_rows: set[int] = set()
     null_cells: dict[str, set[int]] = {}
     required = {name for name, col in MODELS[table].to_schema().columns.items() if not col.nullable}
-    ranges = pack.params("value-out-of-range")[table]
+    ranges = pack.params("value-out-of-range").get(table, {})
 
     def new(rule, row, column, message, **extra):
         record = frame.loc[row]
@@ -128,7 +134,7 @@ def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
             raise RuntimeError(f"schema check {check} on {table}.{column} failed without a row")
         row = int(row)
         if check == "not_nullable":
-            if column in required and table in POINT_TABLES or column == "compound_id":
+            if column in required and table in CHILD_TABLES or column == "compound_id":
                 reject_rows.add(row)
             if (table, row, column) not in db.rejected_cells:
                 new("required-value-missing", row, column, f"required value {column} is empty")
@@ -177,8 +183,8 @@ def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
         reject_rows.update(int(r) for r in frame[ids.notna() & ids.duplicated(keep="first")]["_row"])
     if table == "compounds":
         reject_rows.update(int(r) for r in frame[frame["compound_id"].isna()]["_row"])
-    else:
-        for column in ("compound_id", "t", "p"):
+    else:  # a row of a child table without a required value cannot be checked
+        for column in required:
             reject_rows.update(int(r) for r in frame[frame[column].isna()]["_row"])
     return findings, reject_rows, null_cells
 

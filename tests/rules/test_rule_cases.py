@@ -33,8 +33,9 @@ def _key(compound_id, column, t):
 @pytest.mark.parametrize(("rule_id", "case"), list(_cases()))
 def test_rule_case(rule_id, case, tmp_path):
     folder = write_db(tmp_path / "db", case["compounds"], case.get("vapor_pressure"))
-    if "boiling_points" in case:
-        write_table(folder, "boiling_points", case["boiling_points"])
+    for extra in ("boiling_points", "vp_equations"):
+        if extra in case:
+            write_table(folder, extra, case[extra])
     pack = None
     if "pack" in case:
         pack = tmp_path / "pack.toml"
