@@ -18,10 +18,13 @@ Method
     In ln p: consensus of the sources as in const-off-reference (median,
     sources standing apart named and left out, spread counted in the
     tolerance); ``z = |ln p - c| / sqrt(u_db^2 + u_c^2)`` with relative
-    standard uncertainties (references note C18). Warning above ``warn_z``;
+    standard uncertainties (uncertainty propagation per GUM). Warning above ``warn_z``;
     error above ``error_z`` when at least ``min_sources_for_error`` sources
     each disagree beyond it and none supports the point (within ``warn_z``),
     and the compound's name does not point to another compound than its CAS.
+    When every compared point of a compound (at least 3) is off by one
+    factor (ln-ratio range below 0.2), a single finding covers the series,
+    with the unit slip the factor matches.
 
 Parameters
     warn_z
@@ -142,4 +145,31 @@ def check(db, params) -> list[Finding]:
                      f"(z = {rec.z:.3g}; {int(rec.n_disagree)} of {int(rec.n_sources)} sources disagree beyond "
                      f"z {params['error_z']:g}; {rec.note}){spread}. Sources: {listing}"),
             row=int(rec.key), source=rec.source))
-    return findings
+    compared = both.groupby("compound_id").size()
+    return _collapse_series(findings, compared)
+
+
+def _collapse_series(findings: list[Finding], compared) -> list[Finding]:
+    """One finding for a compound whose every compared point is off by the same factor (a whole-series slip)."""
+    by_compound: dict[str, list[Finding]] = {}
+    for f in findings:
+        by_compound.setdefault(f.compound_id, []).append(f)
+    out = []
+    for cid, group in by_compound.items():
+        ratios = np.log([f.observed / f.expected for f in group])
+        whole = len(group) >= 3 and len(group) == compared.get(cid, 0) and np.ptp(ratios) < 0.2
+        if not whole:
+            out.extend(group)
+            continue
+        factor = float(np.exp(np.median(ratios)))
+        slip = pressure_slip([factor], [1.0])[0][0]
+        first = group[0]
+        out.append(Finding(
+            rule=RULE.id, severity=max((f.severity for f in group), key=["info", "warning", "error"].index),
+            table="vapor_pressure", compound_id=cid, column="p", observed=factor, expected=1.0,
+            tolerance=first.tolerance and first.tolerance / first.expected, suggestion=slip or None,
+            reference=first.reference,
+            message=(f"all {len(group)} points compared lie at {factor:.4g}x the reference consensus "
+                     f"(one factor for the whole series)"),
+            row=None, source=first.source))
+    return out

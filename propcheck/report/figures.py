@@ -1,0 +1,207 @@
+"""Data behind the report's plots, built once from the run (no drawing here).
+
+Per flagged compound: its vapor-pressure points, a robust fit of
+``ln p = A + B/T + C ln T`` (the first terms of Riedel's equation; the
+two-constant Clausius-Clapeyron form ``ln p = A + B/T`` when a compound has
+fewer than five points), the normal boiling point at 101.325 kPa, the
+critical point, the points a finding names and the corrected value where a
+rule diagnosed a slip. Per family: tc, tb and pc against molar mass with the
+members a finding names.
+
+References
+----------
+.. [1] L. Riedel, Chem.-Ing.-Tech. 26, 83 (1954) (vapor-pressure form).
+.. [2] B. E. Poling, J. M. Prausnitz, J. P. O'Connell, The Properties of Gases and
+   Liquids, 5th ed., McGraw-Hill (2001), ch. 7.
+"""
+
+from __future__ import annotations
+
+import re
+from dataclasses import dataclass, field
+
+import numpy as np
+import pandas as pd
+
+from propcheck.database import Database
+from propcheck.physics.grouped_fit import robust_grouped_fit
+from propcheck.physics.vapor_pressure import P_ATM
+
+__all__ = ["CompoundPanel", "FamilyPanel", "build_compound_panels", "build_family_panels", "corrected_value"]
+
+_CORRECTED = re.compile(r"corrected(?:\s+[a-z_]+)?\s+([-+]?\d[\d.]*(?:[eE][-+]?\d+)?)")
+
+
+def corrected_value(suggestion) -> float | None:
+    """The number after ``corrected`` in a rule's suggestion (a diagnosed slip), else None.
+
+    >>> corrected_value("value is 1000x: kPa entered as Pa? corrected 101325 Pa")
+    101325.0
+    >>> corrected_value("tb and tc swapped?") is None
+    True
+    """
+    if not isinstance(suggestion, str):
+        return None
+    match = _CORRECTED.search(suggestion)
+    return float(match.group(1)) if match else None
+
+
+@dataclass
+class CompoundPanel:
+    """Everything the ln p vs 1/T panel of one compound shows."""
+
+    compound_id: str
+    name: str
+    n_findings: int
+    rules: list[str]
+    t: np.ndarray  # K, all points
+    p: np.ndarray  # Pa
+    flagged: np.ndarray  # bool per point: a finding names it
+    fit_beta: np.ndarray | None  # A, B, C of ln p = A + B/T + C ln T (C = 0 for two-constant fits)
+    fit_form: str
+    tb: float | None
+    tc: float | None
+    pc: float | None
+    corrections: list[tuple[str, float, float, float]] = field(default_factory=list)  # column, t, observed, corrected
+
+
+@dataclass
+class FamilyPanel:
+    """tc, tb and pc against molar mass for the members of one family."""
+
+    family: str
+    compound_id: np.ndarray
+    molar_mass: np.ndarray
+    values: dict[str, np.ndarray]  # tc, tb, pc
+    flagged: dict[str, np.ndarray]  # per column: bool, a finding names this member and column
+    n_flagged: int
+
+
+def _fit(t: np.ndarray, p: np.ndarray, group: np.ndarray, n: int) -> tuple[np.ndarray, np.ndarray]:
+    """Robust fits for all groups at once; returns beta (n, 3) and the form per group."""
+    ok = np.isfinite(t) & np.isfinite(p) & (t > 0) & (p > 0)
+    t, p, group = t[ok], p[ok], group[ok]
+    counts = np.bincount(group, minlength=n)
+    y = np.log(p)
+    beta = np.full((n, 3), np.nan)
+    form = np.full(n, "", dtype=object)
+    if len(t) == 0:
+        return beta, form
+    x3 = np.column_stack([np.ones_like(t), 1.0 / t, np.log(t)])
+    three = robust_grouped_fit(x3, y, group, n, min_scale=1e-3).beta
+    two = robust_grouped_fit(x3[:, :2], y, group, n, min_scale=1e-3).beta
+    use3 = (counts >= 5) & np.isfinite(three).all(axis=1)
+    use2 = ~use3 & (counts >= 2) & np.isfinite(two).all(axis=1)
+    beta[use3] = three[use3]
+    beta[use2, :2] = two[use2]
+    beta[use2, 2] = 0.0
+    form[use3] = "ln p = A + B/T + C ln T (robust, Riedel-type)"
+    form[use2] = "ln p = A + B/T (robust, Clausius-Clapeyron)"
+    return beta, form
+
+
+def build_compound_panels(db: Database, findings: pd.DataFrame, compounds: list[str]) -> list[CompoundPanel]:
+    """Panels for ``compounds`` (already chosen and ordered, worst first)."""
+    if not compounds:
+        return []
+    index = {cid: i for i, cid in enumerate(compounds)}
+    db.con.register("_panel_ids", pd.DataFrame({"compound_id": compounds}))
+    try:
+        info = db.df(
+            "SELECT c.compound_id, any_value(c.name) AS name, any_value(c.tb) AS tb, any_value(c.tc) AS tc, "
+            "any_value(c.pc) AS pc FROM compounds c JOIN _panel_ids USING (compound_id) GROUP BY 1"
+        ).set_index("compound_id")
+        if db.has("vapor_pressure"):
+            points = db.df(
+                "SELECT v.compound_id, v.t, v.p FROM vapor_pressure v JOIN _panel_ids USING (compound_id) "
+                "ORDER BY v.compound_id, v.t"
+            )
+        else:
+            points = pd.DataFrame({"compound_id": [], "t": [], "p": []})
+    finally:
+        db.con.unregister("_panel_ids")
+    group = points["compound_id"].map(index).to_numpy(dtype=int)
+    t_all = points["t"].to_numpy(dtype=float)
+    p_all = points["p"].to_numpy(dtype=float)
+    beta, form = _fit(t_all, p_all, group, len(compounds))
+    mine = findings[findings["compound_id"].isin(index)]
+    point_findings = mine[mine["t"].notna() & (mine["table"] == "vapor_pressure")]
+    flagged_keys = set(zip(point_findings["compound_id"], pd.to_numeric(point_findings["t"]).round(6)))
+    flagged_all = np.array([(c, round(t, 6)) in flagged_keys for c, t in zip(points["compound_id"], t_all)], dtype=bool)
+    order = np.argsort(group, kind="stable")
+    starts = np.searchsorted(group[order], np.arange(len(compounds) + 1))
+    t_all, p_all, flagged_all = t_all[order], p_all[order], flagged_all[order]
+    by_compound = {cid: frame for cid, frame in mine.groupby("compound_id")}
+    panels = []
+    for cid in compounds:  # one panel per flagged compound (bounded by the cap)
+        i = index[cid]
+        sl = slice(starts[i], starts[i + 1])
+        row = info.loc[cid] if cid in info.index else None
+        frame = by_compound.get(cid, mine.iloc[0:0])
+        fixes: list = []
+        for col, t, obs, sug in zip(frame["column"], frame["t"], frame["observed"], frame["suggestion"]):
+            value = corrected_value(sug)
+            if value is not None and col in ("p", "tb", "tc", "pc"):
+                fix = (col, float(t) if t is not None else float("nan"), _num(obs), value)
+                if fix not in fixes:
+                    fixes.append(fix)
+
+        panels.append(CompoundPanel(
+            compound_id=cid,
+            name=str(row["name"]) if row is not None and isinstance(row["name"], str) else "",
+            n_findings=len(frame),
+            rules=sorted(set(frame["rule"])),
+            t=t_all[sl], p=p_all[sl], flagged=flagged_all[sl],
+            fit_beta=beta[i] if np.isfinite(beta[i]).all() else None,
+            fit_form=form[i] or "",
+            tb=_num(row["tb"]) if row is not None else None,
+            tc=_num(row["tc"]) if row is not None else None,
+            pc=_num(row["pc"]) if row is not None else None,
+            corrections=fixes,
+        ))
+    return panels
+
+
+def _num(value) -> float | None:
+    try:
+        out = float(value)
+    except (TypeError, ValueError):
+        return None
+    return out if np.isfinite(out) else None
+
+
+def fit_ln_p(beta: np.ndarray, t: np.ndarray) -> np.ndarray:
+    """Evaluate ``ln p = A + B/T + C ln T``."""
+    return beta[0] + beta[1] / t + beta[2] * np.log(t)
+
+
+def build_family_panels(db: Database, findings: pd.DataFrame, limit: int = 12) -> list[FamilyPanel]:
+    """tc, tb and pc against molar mass per family; families with flagged members first, at most ``limit``."""
+    frame = db.df(
+        "SELECT compound_id, family, molar_mass, tc, tb, pc FROM compounds "
+        "WHERE family IS NOT NULL AND molar_mass > 0 ORDER BY family, molar_mass, compound_id"
+    )
+    if frame.empty:
+        return []
+    named = findings[findings["compound_id"].notna()]
+    keys = set(zip(named["compound_id"], named["column"].fillna("")))
+    any_flag = set(named["compound_id"])
+    frame["_flag"] = frame["compound_id"].isin(any_flag)
+    ranking = frame.groupby("family")["_flag"].agg(["sum", "size"]).reset_index()
+    ranking = ranking[ranking["size"] >= 2].sort_values(["sum", "family"], ascending=[False, True])
+    panels = []
+    for family in ranking["family"].head(limit):  # loop over families (bounded)
+        members = frame[frame["family"] == family]
+        ids = members["compound_id"].to_numpy(dtype=object)
+        panels.append(FamilyPanel(
+            family=str(family),
+            compound_id=ids,
+            molar_mass=members["molar_mass"].to_numpy(dtype=float),
+            values={c: members[c].to_numpy(dtype=float) for c in ("tc", "tb", "pc")},
+            flagged={c: np.array([(cid, c) in keys for cid in ids], dtype=bool) for c in ("tc", "tb", "pc")},
+            n_flagged=int(members["_flag"].sum()),
+        ))
+    return panels
+
+
+P_NORMAL = P_ATM  # tb is defined at 101.325 kPa
