@@ -15,7 +15,7 @@ import numpy as np
 
 from propcheck.physics.unit_slips import PRESSURE_SLIPS
 from propcheck.physics.vapor_pressure import lee_kesler_psat
-from propcheck.physics.vp_fit import FORM_TITLES, FORMS, VpFit, fit_vapor_pressure
+from propcheck.physics.vp_fit import FORM_TITLES, FORMS, VpFit, fit_in_blocks
 
 __all__ = ["Curves", "curves"]
 
@@ -114,7 +114,7 @@ def _compute(db) -> Curves | None:
     n_groups = len(comp["compound_id"])
     tc, pc = np.asarray(comp["tc"], float), np.asarray(comp["pc"], float)
     t, p = np.asarray(pts["t"], float), np.asarray(pts["p"], float)
-    fit = fit_vapor_pressure(group, t, p, n_groups, tc, pc)
+    fit = fit_in_blocks(group, t, p, n_groups, tc, pc)
     omega = np.asarray(comp["omega"], float)
     log_ratio, n_cs = _cs_log_ratio(group, t, p, n_groups, tc, pc, omega)
     factor, slip = _series_slip(log_ratio)

@@ -21,6 +21,7 @@ def load_database(source: str, mapping_path: str | None = None) -> Database:
     data_dir = Path(source) if not source.startswith(("postgresql://", "postgres://")) and Path(source).is_dir() else None
     mapping = read_mapping(mapping_path, data_dir)
     con = duckdb.connect(":memory:")
+    con.execute("SET enable_progress_bar = false")  # propcheck reports its own progress
     kind, raw_tables = open_source(con, source, mapping)
     db = Database(con=con, source=display_source(source), kind=kind)
     if mapping.path:

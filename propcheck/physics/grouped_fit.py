@@ -16,6 +16,7 @@ import numpy as np
 
 __all__ = ["GroupFit", "group_median", "grouped_lstsq", "robust_grouped_fit"]
 
+BLOCK_ROWS = 1 << 20  # rows whose cross products are formed at once
 MAD_TO_SIGMA = 1.482602218505602  # 1/Phi^-1(3/4): MAD of a normal sample -> sigma (common practice)
 
 
@@ -101,13 +102,17 @@ def _lstsq_t(xt: np.ndarray, y: np.ndarray, group: np.ndarray, n_groups: int, w:
     xtx = np.zeros((n_groups, k, k))
     xty = np.zeros((n_groups, k))
     pairs = [(i, j) for i in range(k) for j in range(i, k)]
-    wx = xt * w
-    # all cross products in one (m, n) array, summed per group in one pass
-    products = np.empty((len(pairs) + k, n))
-    for c, (i, j) in enumerate(pairs):
-        np.multiply(wx[i], xt[j], out=products[c])
-    np.multiply(wx, y, out=products[len(pairs):])
-    sums = _group_sums(products, group, n_groups)
+    sums = np.zeros((n_groups, len(pairs) + k))
+    # all cross products of a block of rows in one (m, block) array, summed per group;
+    # blocks bound the memory to a few arrays of BLOCK_ROWS whatever the number of rows
+    for lo in range(0, n, BLOCK_ROWS):
+        hi = min(n, lo + BLOCK_ROWS)
+        wx = xt[:, lo:hi] * w[lo:hi]
+        products = np.empty((len(pairs) + k, hi - lo))
+        for c, (i, j) in enumerate(pairs):
+            np.multiply(wx[i], xt[j, lo:hi], out=products[c])
+        np.multiply(wx, y[lo:hi], out=products[len(pairs):])
+        sums += _group_sums(products, group[lo:hi], n_groups)
     for c, (i, j) in enumerate(pairs):
         xtx[:, i, j] = xtx[:, j, i] = sums[:, c]
     xty[:] = sums[:, len(pairs):]

@@ -39,7 +39,7 @@ import numpy as np
 
 from propcheck.physics.grouped_fit import MAD_TO_SIGMA, group_median, grouped_lstsq, robust_grouped_fit
 
-__all__ = ["FORMS", "VpFit", "fit_vapor_pressure"]
+__all__ = ["FORMS", "VpFit", "fit_in_blocks", "fit_vapor_pressure"]
 
 FORMS = ("none", "clausius-clapeyron", "antoine", "wagner", "riedel")
 FORM_TITLES = {
@@ -313,3 +313,42 @@ def _fit_antoine(t, ln_p, group, n_groups, min_scale, w0, tuning=4.685, iteratio
             break
         resid = new_resid
     return beta, resid, w, scale
+
+
+def fit_in_blocks(group, t, p, n_groups, tc, pc, block_points: int = 1 << 20, **kwargs) -> VpFit:
+    """:func:`fit_vapor_pressure` over blocks of whole compounds, to bound memory.
+
+    ``group`` must be sorted (points of a compound together). Each block
+    holds about ``block_points`` points; results are concatenated, so the
+    outcome equals one call over all points.
+    """
+    group = np.asarray(group)
+    if len(group) <= block_points:
+        return fit_vapor_pressure(group, t, p, n_groups, tc, pc, **kwargs)
+    starts = np.flatnonzero(np.concatenate(([True], group[1:] != group[:-1])))
+    cuts = [0]
+    for target in range(block_points, len(group), block_points):
+        cut = starts[np.searchsorted(starts, target)] if target <= starts[-1] else len(group)
+        if cut > cuts[-1] and cut < len(group):
+            cuts.append(int(cut))
+    cuts.append(len(group))
+    parts = []
+    for lo, hi in zip(cuts[:-1], cuts[1:]):
+        g_lo, g_hi = int(group[lo]), int(group[hi - 1]) + 1
+        parts.append((g_lo, g_hi, fit_vapor_pressure(group[lo:hi] - g_lo, t[lo:hi], p[lo:hi], g_hi - g_lo,
+                                                     tc[g_lo:g_hi], pc[g_lo:g_hi], **kwargs)))
+    per_group = ("form", "coef", "n_points", "t_min", "t_max", "scale", "anchor_misfit", "alt_scale", "free_form",
+                 "free_coef")
+    per_point = ("residual", "weight", "alt_residual")
+    merged = {}
+    for name in per_group:
+        first = getattr(parts[0][2], name)
+        out = np.zeros((n_groups,) + first.shape[1:], dtype=first.dtype)
+        if np.issubdtype(out.dtype, np.floating):
+            out[:] = np.nan
+        for g_lo, g_hi, fit in parts:
+            out[g_lo:g_hi] = getattr(fit, name)
+        merged[name] = out
+    for name in per_point:
+        merged[name] = np.concatenate([getattr(fit, name) for _, _, fit in parts])
+    return VpFit(tc=np.asarray(tc, float), pc=np.asarray(pc, float), **merged)
