@@ -7,6 +7,8 @@ What it checks
     than the CAS's, when the stored formula differs from the CAS's formula,
     or when only a formula is there and several compounds share it. Says
     (info) when a compound was identified by name or formula instead of CAS.
+    The name-versus-CAS warning is left to ``cas-names-other-compound``
+    when that rule is enabled, so one problem gives one finding.
 
 Why it matters
     Every reference cross-check rests on knowing which compound a row is.
@@ -57,7 +59,10 @@ def check(db, params) -> list[Finding]:
             observed=observed, expected=expected, message=message, row=int(rec.row), source=rec.source,
             reference="chemicals identifier database"))
 
-    for rec in ident[ident["name_conflict"]].itertuples(index=False):
+    pack = db.cache.get("pack")
+    # the name-vs-CAS conflict is cas-names-other-compound's finding when that rule runs: one finding, not two
+    name_conflicts = ident[ident["name_conflict"]] if pack is None or not pack.enabled("cas-names-other-compound") else ident[:0]
+    for rec in name_conflicts.itertuples(index=False):
         add(rec, "warning", "cas",
             f"name '{rec.name}' is CAS {rec.name_cas} in the identifier database, but cas {rec.cas} is "
             f"{rec.cas_name}; reference checks use {rec.cas}", rec.cas, rec.name_cas)
