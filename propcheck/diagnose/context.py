@@ -52,6 +52,8 @@ class Context:
     head: np.ndarray | None = None  # irregular heads of series: neither judged nor used
     vp_tmax: np.ndarray | None = None
     vp_tb: np.ndarray | None = None
+    # median of the independent reference sources per column (NaN where none), when reference checks run
+    reference: dict[str, np.ndarray] = field(default_factory=dict)
 
     def family_z(self, column: str, values: np.ndarray, rows: np.ndarray) -> np.ndarray:
         """|value - family expectation| / tolerance for ``rows``; NaN where not judged."""
@@ -140,7 +142,23 @@ def build_context(db, params: dict | None = None) -> Context:
         ctx.tolerance[column] = tol
         ctx.neighbours[column] = nb
     ctx.vp_tmax, ctx.vp_tb = _vp_summary(db, frame["compound_id"])
+    ctx.reference = _reference_medians(db, frame["_row"])
     return ctx
+
+
+def _reference_medians(db, rows: pd.Series) -> dict[str, np.ndarray]:
+    """Median of the reference sources per compounds row and column (only when a reference rule runs)."""
+    pack = db.cache.get("pack")
+    if pack is None or not (pack.enabled("const-off-reference") or pack.enabled("vp-off-reference")):
+        return {}
+    from propcheck.reference import session
+
+    long = session.constants(db)
+    if long.empty:
+        return {}
+    medians = long.groupby(["key", "property"])["value"].median().unstack("property")
+    medians = medians.reindex(rows.to_numpy())
+    return {c: medians[c].to_numpy(dtype=float) for c in medians.columns}
 
 
 def get_context(db, params: dict | None = None) -> Context:

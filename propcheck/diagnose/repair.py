@@ -9,7 +9,10 @@ the evidence available for that compound, all candidates at once:
 * its own vapor-pressure curve: tb against Lee-Kesler from tc, pc, omega
   (C10), tc above its highest point, tb against the points bracketing
   101325 Pa;
-* its family's trend (C14) and its formula's molar mass (C16).
+* its family's trend (C14) and its formula's molar mass (C16);
+* the median of the independent reference sources for the column, when the
+  reference checks run (the compilations carried by chemicals and CoolProp's
+  reference equations; see ``propcheck.reference``).
 
 A check contributes ``z = |deviation| / tolerance``; a row is consistent
 when every z <= 1. The best candidate fails fewest checks, then has the
@@ -33,7 +36,7 @@ __all__ = ["Diagnosis", "EVIDENCE", "diagnose", "evidence_z"]
 
 R = 8.314462618  # J/(mol K), exact (SI 2019)
 
-# Tolerances of the evidence (references: C10 Lee-Kesler tb 2 K, doubled for
+# Tolerances of the evidence (Lee-Kesler tb 2 K, doubled for
 # polar compounds; C11 Guldberg band; C12 Zc; C16 molar mass; section 2 omega).
 EVIDENCE = {
     "guldberg_band": (0.55, 0.87),
@@ -47,6 +50,19 @@ EVIDENCE = {
                "zc": (0.05, 0.5), "omega": (-1.0, 2.5), "tb": (1.0, 2500.0), "tm": (0.5, 4000.0)},
 }
 _HARD = 1e3
+# Tolerances against the median of the reference sources, wider than a
+# single compilation's stated uncertainty because compilations differ among
+# themselves (CRC Handbook critical table: median u(Tc) 0.8 K, u(Pc) 2.4 %,
+# u(Vc) 3.2 %; IUPAC vs CRC spreads of several K for some compounds).
+REFERENCE_TOLERANCE = {
+    "tc": lambda ref: 3.0 + 0.005 * ref,
+    "pc": lambda ref: 0.05 * ref,
+    "vc": lambda ref: 0.08 * ref,
+    "tb": lambda ref: 2.0 + 0.0 * ref,
+    "tm": lambda ref: 3.0 + 0.0 * ref,
+    "omega": lambda ref: 0.03 + 0.0 * ref,
+    "molar_mass": lambda ref: 0.05 + 5e-4 * ref,
+}
 
 PRIOR_PENALTY = 0.5
 
@@ -108,6 +124,11 @@ def evidence_z(ctx: Context, rows: np.ndarray, v: dict[str, np.ndarray]) -> dict
         z["formula molar mass"] = np.abs(m - ctx.formula_mass[rows]) / (0.02 + 2e-4 * m)
         for c in TREND_COLUMNS:
             z[f"family trend {c}"] = ctx.family_z(c, v[c], rows)
+        for c, ref in ctx.reference.items():
+            if c not in v:
+                continue
+            tol = REFERENCE_TOLERANCE[c](ref[rows]) if c in REFERENCE_TOLERANCE else np.nan
+            z[f"reference {c}"] = np.abs(v[c] - ref[rows]) / tol
     return z
 
 
