@@ -176,6 +176,9 @@ def main(argv: list[str] | None = None) -> int:
     except KeyboardInterrupt:
         print("propcheck: interrupted", file=sys.stderr)
         return 130
+    except BrokenPipeError:  # stdout closed by its reader (`propcheck rules | head`): nothing left to say
+        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
+        return 0
     except Exception as exc:  # a bug in propcheck, never the user's data
         if os.environ.get("PROPCHECK_DEBUG"):
             traceback.print_exc()

@@ -88,7 +88,10 @@ def cmd_check(args) -> int:
         data.history = read_history(args.history)
     write_reports(data, args.out)
     if not args.quiet:
-        print(render_terminal(data, args.out))
+        try:
+            print(render_terminal(data, args.out), flush=True)
+        except BrokenPipeError:  # the reader of stdout went away (e.g. `| head`): the exit status still counts
+            _silence_stdout()
     for reason in data.fail_reasons:
         if reason.startswith("waiver expired"):
             print(f"propcheck: {reason}", file=sys.stderr)
@@ -140,3 +143,11 @@ def cmd_compare(args) -> int:
     if not args.quiet:
         print(render_compare_terminal(result, args.out))
     return result.exit_code
+
+
+def _silence_stdout() -> None:
+    """Point stdout at /dev/null so that Python's exit flush does not fail again."""
+    import os
+
+    devnull = os.open(os.devnull, os.O_WRONLY)
+    os.dup2(devnull, sys.stdout.fileno())

@@ -75,3 +75,16 @@ def test_terminal_summary_on_sample_db(run_cli, tmp_path):
 def test_quiet_prints_nothing(run_cli, tmp_path):
     result = run_cli("check", SAMPLE_DB, "--out", tmp_path / "out", "--quiet")
     assert result.code == 1 and result.out == "" and result.err == ""
+
+
+def test_reader_closing_stdout_is_not_a_crash(tmp_path):
+    """`propcheck check ... | head -1`: the run's exit status stands and no internal error is reported."""
+    import subprocess
+    import sys
+
+    proc = subprocess.Popen([sys.executable, "-m", "propcheck", "check", str(SAMPLE_DB), "--out", str(tmp_path / "o")],
+                            stdout=subprocess.PIPE, stderr=subprocess.PIPE)
+    proc.stdout.close()  # the reader is gone before propcheck prints its summary
+    err = proc.stderr.read().decode()
+    assert proc.wait() == 1
+    assert "internal error" not in err and "Traceback" not in err
