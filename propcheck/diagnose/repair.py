@@ -143,10 +143,19 @@ def _names_passing(z, before, i) -> str:
     fixed = [k for k in z if np.isfinite(before[k][i]) and before[k][i] > 1 and z[k][i] <= 1]
     kept = [k for k in z if np.isfinite(z[k][i]) and z[k][i] <= 1 and k not in fixed
             and k not in ("bounds", "phase order", "omega range")]
-    parts = ["restores " + ", ".join(fixed) if fixed else "improves the row"]
+    parts = ["restores " + _join(fixed) if fixed else "improves the row"]
     if kept:
-        parts.append("agrees with " + ", ".join(kept))
+        parts.append("agrees with " + _join(kept))
     return "; ".join(parts)
+
+
+def _join(names: list[str]) -> str:
+    """List check names, the reference comparisons gathered into one item."""
+    ref = [n.removeprefix("reference ") for n in names if n.startswith("reference ")]
+    rest = [n for n in names if not n.startswith("reference ")]
+    if ref:
+        rest.append(f"reference data ({', '.join(ref)})")
+    return ", ".join(rest)
 
 
 def diagnose(ctx: Context, rows, columns, raw: dict[str, np.ndarray] | None = None) -> list[Diagnosis | None]:

@@ -31,7 +31,7 @@ def _corrections(tmp_path, pack_text=None):
 def test_reference_consensus_is_part_of_the_evidence(tmp_path):
     row = _corrections(tmp_path)["tc"]
     assert float(row["proposed_value"]) == 507.6
-    assert "reference tc" in row["evidence"]
+    assert "restores" in row["evidence"] and "reference data (tc)" in row["evidence"]
 
 
 def test_without_reference_checks_the_repair_stands_on_its_own(tmp_path):
