@@ -8,15 +8,9 @@ from __future__ import annotations
 
 import numpy as np
 
-from propcheck.physics.vapor_pressure import P_ATM
+from propcheck.physics.vapor_pressure import P_ATM, lee_kesler_f0_f1
 
-__all__ = ["lee_kesler_omega", "lee_kesler_tb"]
-
-
-def _f0_f1(tr):
-    f0 = 5.92714 - 6.09648 / tr - 1.28862 * np.log(tr) + 0.169347 * tr**6
-    f1 = 15.2518 - 15.6875 / tr - 13.4721 * np.log(tr) + 0.43577 * tr**6
-    return f0, f1
+__all__ = ["lee_kesler_omega", "lee_kesler_t_at", "lee_kesler_tb"]
 
 
 def lee_kesler_omega(tb, tc, pc):
@@ -38,16 +32,37 @@ def lee_kesler_omega(tb, tc, pc):
     .. [1] B. I. Lee, M. G. Kesler, AIChE J. 21, 510 (1975).
     """
     tbr = np.asarray(tb, dtype=float) / np.asarray(tc, dtype=float)
-    f0, f1 = _f0_f1(tbr)
+    f0, f1 = lee_kesler_f0_f1(tbr)
     with np.errstate(divide="ignore", invalid="ignore"):
         return (np.log(P_ATM / np.asarray(pc, dtype=float)) - f0) / f1
+
+
+def lee_kesler_t_at(p, tc, pc, omega, iterations: int = 60):
+    """Temperature [K] where the Lee-Kesler curve reaches pressure ``p`` [Pa].
+
+    Solved by bisection on Tr in [0.2, 1] (the form rises monotonically
+    there for -0.5 < omega < 2); NaN where p >= pc or an input is missing.
+    """
+    p, tc, pc, omega = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in (p, tc, pc, omega)))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        target = np.log(p / pc)
+    lo = np.full(tc.shape, 0.2)
+    hi = np.full(tc.shape, 1.0)
+    for _ in range(iterations):
+        mid = 0.5 * (lo + hi)
+        f0, f1 = lee_kesler_f0_f1(mid)
+        above = f0 + omega * f1 > target
+        hi = np.where(above, mid, hi)
+        lo = np.where(above, lo, mid)
+    t = 0.5 * (lo + hi) * tc
+    bad = ~(np.isfinite(p) & np.isfinite(tc) & np.isfinite(pc) & np.isfinite(omega)) | (pc <= p) | (tc <= 0)
+    return np.where(bad, np.nan, t)
 
 
 def lee_kesler_tb(tc, pc, omega, iterations: int = 60):
     """Normal boiling point [K] where the Lee-Kesler curve reaches 101325 Pa.
 
-    Solved by bisection on Tr in [0.2, 1] (the form rises monotonically
-    there for -0.5 < omega < 2); NaN where pc <= 101325 Pa or an input is
+    See :func:`lee_kesler_t_at`; NaN where pc <= 101325 Pa or an input is
     missing.
 
     Examples
@@ -58,20 +73,4 @@ def lee_kesler_tb(tc, pc, omega, iterations: int = 60):
     >>> abs(float(lee_kesler_tb(507.6, 3.025e6, 0.300)) - 341.87) < 1.0
     True
     """
-    tc = np.asarray(tc, dtype=float)
-    pc = np.asarray(pc, dtype=float)
-    omega = np.asarray(omega, dtype=float)
-    tc, pc, omega = np.broadcast_arrays(tc, pc, omega)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        target = np.log(P_ATM / pc)
-    lo = np.full(tc.shape, 0.2)
-    hi = np.full(tc.shape, 1.0)
-    for _ in range(iterations):
-        mid = 0.5 * (lo + hi)
-        f0, f1 = _f0_f1(mid)
-        above = f0 + omega * f1 > target
-        hi = np.where(above, mid, hi)
-        lo = np.where(above, lo, mid)
-    tb = 0.5 * (lo + hi) * tc
-    bad = ~(np.isfinite(tc) & np.isfinite(pc) & np.isfinite(omega)) | (pc <= P_ATM) | (tc <= 0)
-    return np.where(bad, np.nan, tb)
+    return lee_kesler_t_at(P_ATM, tc, pc, omega, iterations)

@@ -11,6 +11,7 @@ __all__ = [
     "ambrose_walton_psat",
     "antoine",
     "clausius_clapeyron",
+    "lee_kesler_f0_f1",
     "lee_kesler_psat",
     "omega_from_psat",
     "wagner_25_5",
@@ -123,10 +124,15 @@ def lee_kesler_psat(t, tc, pc, omega):
     ----------
     .. [1] B. I. Lee, M. G. Kesler, AIChE J. 21, 510 (1975).
     """
-    tr = np.asarray(t, dtype=float) / tc
+    f0, f1 = lee_kesler_f0_f1(np.asarray(t, dtype=float) / tc)
+    return pc * np.exp(f0 + omega * f1)
+
+
+def lee_kesler_f0_f1(tr):
+    """The simple-fluid and correction terms f0(Tr), f1(Tr) of Lee and Kesler (1975)."""
     f0 = 5.92714 - 6.09648 / tr - 1.28862 * np.log(tr) + 0.169347 * tr**6
     f1 = 15.2518 - 15.6875 / tr - 13.4721 * np.log(tr) + 0.43577 * tr**6
-    return pc * np.exp(f0 + omega * f1)
+    return f0, f1
 
 
 def ambrose_walton_psat(t, tc, pc, omega):

@@ -52,6 +52,7 @@ import numpy as np
 import pandas as pd
 
 from propcheck.curves import curves
+from propcheck.physics.corresponding_states import lee_kesler_t_at
 from propcheck.physics.unit_slips import pressure_slip, temperature_slip
 from propcheck.physics.vapor_pressure import lee_kesler_psat
 from propcheck.rules.base import RuleInfo
@@ -81,18 +82,6 @@ ORDER BY b.compound_id, b.p
 """
 
 
-def _lee_kesler_t(p, tc, pc, omega):
-    """Temperature where Lee-Kesler gives p (bisection on arrays, 0.3 < Tr < 1)."""
-    lo, hi = 0.3 * tc, tc
-    for _ in range(60):
-        mid = 0.5 * (lo + hi)
-        above = lee_kesler_psat(mid, tc, pc, omega) > p
-        hi = np.where(above, mid, hi)
-        lo = np.where(above, lo, mid)
-    t = 0.5 * (lo + hi)
-    return np.where(np.isfinite(tc) & np.isfinite(pc) & np.isfinite(omega) & (p < pc), t, np.nan)
-
-
 def check(db, params):
     if not db.has("boiling_points"):
         return None
@@ -119,7 +108,7 @@ def check(db, params):
         method = np.where(has_curve, [cv.describe(x) for x in gg], method)
     no_curve = ~has_curve | ~np.isfinite(t_ref)
     tc, pc, omega = (b[k].to_numpy(float) for k in ("tc", "pc", "omega"))
-    t_lk = _lee_kesler_t(p, tc, pc, omega)
+    t_lk = lee_kesler_t_at(p, tc, pc, omega)
     t_ref = np.where(no_curve, t_lk, t_ref)
     with np.errstate(all="ignore"):
         p_at_t = np.where(no_curve, lee_kesler_psat(t, tc, pc, omega), p_at_t)
