@@ -1,7 +1,6 @@
 """The reference rules with the real libraries (chemicals 1.5.2 compilations, CoolProp 8.0.0).
 
-Check values: references note section 3 (the shared scientific note), whose
-sources are, per compound, the IUPAC critical-data series (Parts 2, 3, 4, 7:
+Check values: tests/published_constants.py, whose sources are, per compound, the IUPAC critical-data series (Parts 2, 3, 4, 7:
 Ambrose & Tsonopoulos 1995, Tsonopoulos & Ambrose 1995, Gude & Teja 1995,
 Kudchadker et al. 2001) or the reference EOS named in the comment for Tc and
 Pc; the CRC Handbook 95th ed. for Tb; the reference EOS (else PSRK,
@@ -17,47 +16,14 @@ import pytest
 from propcheck.pipeline import run_check
 from propcheck.reference import default_reference, set_reference
 from tests.conftest import write_db
+from tests.published_constants import compounds as published_compounds
 
 RULES = ("identity-mismatch", "reference-missing", "const-off-reference", "vp-off-reference")
 
-# name, CAS, M [g/mol], Tc [K], Pc [MPa], Tb [K], omega, Zc  -- references note section 3
-SECTION3 = [
-    ("methane", "74-82-8", 16.043, 190.564, 4.599, 111.65, 0.0114, 0.286),         # I2 / Setzmann 1991 EOS
-    ("ethane", "74-84-0", 30.070, 305.32, 4.872, 184.55, 0.099, 0.279),            # I2 / Buecker 2006 EOS
-    ("propane", "74-98-6", 44.097, 369.83, 4.248, 231.04, 0.152, 0.277),           # I2 / Lemmon 2009 EOS
-    ("n-butane", "106-97-8", 58.124, 425.12, 3.796, 272.65, 0.201, 0.274),         # I2 / Buecker 2006 EOS
-    ("n-pentane", "109-66-0", 72.151, 469.7, 3.370, 309.21, 0.251, 0.268),         # I2 / Thol 2019 EOS
-    ("n-hexane", "110-54-3", 86.178, 507.6, 3.025, 341.87, 0.300, 0.264),          # I2 / Thol 2019 EOS
-    ("n-heptane", "142-82-5", 100.205, 540.2, 2.740, 371.53, 0.349, 0.261),        # I2 / Span 2003 EOS
-    ("n-octane", "111-65-9", 114.232, 568.7, 2.490, 398.77, 0.398, 0.259),         # I2 / Beckmueller 2019 EOS
-    ("n-decane", "124-18-5", 142.286, 617.7, 2.110, 447.25, 0.488, 0.256),         # Lemmon 2006 EOS, I2 Pc
-    ("methanol", "67-56-1", 32.042, 512.5, 8.084, 337.65, 0.565, 0.223),           # I4 / de Reuck 1993 EOS
-    ("ethanol", "64-17-5", 46.069, 514.0, 6.137, 351.39, 0.644, 0.241),            # I4 / Schroeder 2014 EOS
-    ("1-propanol", "71-23-8", 60.096, 536.8, 5.169, 370.19, 0.624, 0.252),         # I4 / PSRK
-    ("1-butanol", "71-36-3", 74.123, 563.0, 4.414, 390.75, 0.590, 0.258),          # I4 / PSRK
-    ("benzene", "71-43-2", 78.114, 562.05, 4.895, 353.23, 0.211, 0.268),           # I3 / Thol 2012 EOS
-    ("toluene", "108-88-3", 92.141, 591.75, 4.108, 383.75, 0.266, 0.264),          # I3 / Lemmon 2006 EOS
-    ("ethylbenzene", "100-41-4", 106.168, 617.15, 3.609, 409.35, 0.304, 0.263),    # I3 / Zhou 2012 EOS
-    ("p-xylene", "106-42-3", 106.168, 616.2, 3.511, 411.45, 0.324, 0.259),         # I3 / Zhou 2012 EOS
-    ("acetone", "67-64-1", 58.080, 508.1, 4.700, 329.23, 0.307, 0.237),            # I7 / Lemmon 2006 EOS
-    ("2-butanone", "78-93-3", 72.107, 536.7, 4.207, 352.75, 0.329, 0.252),         # I7 / PSRK
-    ("water", "7732-18-5", 18.015, 647.096, 22.064, 373.124, 0.344, 0.229),        # IAPWS R2-83 / IAPWS-95
-    ("ammonia", "7664-41-7", 17.031, 405.56, 11.363, 239.82, 0.256, 0.246),        # Gao 2020 EOS
-    ("carbon dioxide", "124-38-9", 44.009, 304.128, 7.3773, None, 0.224, 0.275),   # Span 1996 EOS; sublimes
-    ("nitrogen", "7727-37-9", 28.014, 126.192, 3.3958, 77.355, 0.037, 0.289),      # Span 2000 EOS
-    ("hydrogen sulfide", "7783-06-4", 34.076, 373.1, 9.000, 212.85, 0.100, 0.285), # Lemmon 2006 EOS
-]
-
-
 def _rows():
-    rows = []
-    for i, (name, cas, m, tc, pc, tb, omega, zc) in enumerate(SECTION3, start=1):
-        row = {"compound_id": f"S{i:02d}", "name": name, "cas": cas, "molar_mass": m, "tc": tc, "pc": pc * 1e6,
-               "omega": omega, "zc": zc}
-        if tb is not None:
-            row["tb"] = tb
-        rows.append(row)
-    return rows
+    """The 24 published compounds of tests/published_constants.py (sources named there, per row)."""
+    return [{k: v for k, v in row.items() if k not in ("formula", "family", "vc") and v is not None}
+            for row in published_compounds()]
 
 
 @pytest.fixture(autouse=True)
