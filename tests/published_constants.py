@@ -1,10 +1,9 @@
 """Published constants of 24 pure compounds, for tests (not collected).
 
-Every row is copied from the project's scientific reference note, section 3
-("Pure-compound table"), whose sources are: Tc, Pc from the IUPAC
-critical-data series (Ambrose & Tsonopoulos 1995, Tsonopoulos & Ambrose
-1995, Gude & Teja 1995, Kudchadker et al. 2001) or the reference equation of
-state named per row; Tb from the CRC Handbook 95th ed. at 101.325 kPa; omega
+Every row carries published values, as carried by chemicals 1.5.2 and
+CoolProp 8.0.0: Tc, Pc from the IUPAC critical-data series (Ambrose &
+Tsonopoulos 1995, Tsonopoulos & Ambrose 1995, Gude & Teja 1995, Kudchadker
+et al. 2001) or the reference equation of state named per row; Tb from the CRC Handbook 95th ed. at 101.325 kPa; omega
 from the reference EOS, else Horstmann et al. 2005 (PSRK); Zc from the IUPAC
 file or the EOS; M from IUPAC 2021 standard atomic weights.
 """

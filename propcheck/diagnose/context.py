@@ -2,7 +2,7 @@
 
 For every compound: its numeric constants, the molar mass of its formula
 (IUPAC 2021 weights), its family's leave-one-out trend for tc, tb, pc and
-omega (references C14), and the span of its own vapor-pressure points (a
+omega (see off-family-trend), and the span of its own vapor-pressure points (a
 Clausius-Clapeyron interpolation gives tb when 101325 Pa lies inside).
 """
 
@@ -22,8 +22,8 @@ __all__ = ["NUMERIC", "TREND_COLUMNS", "Context", "FAMILY_DEFAULTS", "get_contex
 NUMERIC = ("molar_mass", "tc", "pc", "vc", "zc", "omega", "tb", "tm")
 TREND_COLUMNS = ("tc", "tb", "pc", "omega")
 
-# Defaults of the off-family-trend rule (references C14; rules/default.toml
-# gives the basis of each number).
+# Defaults of the off-family-trend rule (rules/default.toml gives the basis
+# of each number).
 FAMILY_DEFAULTS = {
     "tolerance": {"tc": 3.0, "tb": 2.0, "pc": 0.03, "omega": 0.02},
     "isomer_tolerance": {"tc": 15.0, "tb": 12.0, "pc": 0.08, "omega": 0.05},

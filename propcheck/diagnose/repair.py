@@ -3,13 +3,13 @@
 Each candidate row (one cell repaired, or two cells swapped) is scored by
 the evidence available for that compound, all candidates at once:
 
-* order and bands: tm < tb < tc; tb/tc in Guldberg's band (references C11);
-  Zc = pc vc/(R tc) in the observed band and equal to a stored zc (C12);
+* order and bands: tm < tb < tc; tb/tc in Guldberg's band (Guldberg 1890);
+  Zc = pc vc/(R tc) in the observed band and equal to a stored zc;
   omega in the observed range; the gross bounds of ``value-out-of-range``;
 * its own vapor-pressure curve: tb against Lee-Kesler from tc, pc, omega
-  (C10), tc above its highest point, tb against the points bracketing
-  101325 Pa;
-* its family's trend (C14) and its formula's molar mass (C16);
+  (Lee & Kesler 1975), tc above its highest point, tb against the points
+  bracketing 101325 Pa;
+* its family's trend and its formula's molar mass (IUPAC 2021 weights);
 * the median of the independent reference sources for the column, when the
   reference checks run (the compilations carried by chemicals and CoolProp's
   reference equations; see ``propcheck.reference``).
@@ -36,8 +36,11 @@ __all__ = ["Diagnosis", "EVIDENCE", "diagnose", "evidence_z"]
 
 R = 8.314462618  # J/(mol K), exact (SI 2019)
 
-# Tolerances of the evidence (Lee-Kesler tb 2 K, doubled for
-# polar compounds; C11 Guldberg band; C12 Zc; C16 molar mass; section 2 omega).
+# Tolerances of the evidence, the defaults of the rules that judge each one
+# (their bases are given there and in rules/default.toml): Lee-Kesler tb 2 K,
+# doubled for polar compounds (tb-off-corresponding-states); Guldberg band
+# (tb-tc-ratio-out-of-band); Zc (zc-inconsistent); molar mass
+# (molar-mass-off-formula); omega range (omega-out-of-range).
 EVIDENCE = {
     "guldberg_band": (0.55, 0.87),
     "zc_band": (0.20, 0.31),

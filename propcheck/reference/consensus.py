@@ -13,7 +13,7 @@ Per key (a compound and property, or a compound and temperature):
    that disagree among themselves widen the tolerance.
 
 The database value is then judged by ``z = |d| / sqrt(u_db^2 + u_c^2)``
-(GUM combined standard uncertainty, JCGM 100:2008; references note C18).
+(GUM combined standard uncertainty, JCGM 100:2008).
 """
 
 from __future__ import annotations
@@ -30,7 +30,7 @@ def z_score(difference, u1, u2):
     Examples
     --------
     n-hexane Tc, IUPAC 507.6 K vs the Thol 2019 EOS 507.82 K, with the
-    default u of 1 K + 0.2 % each (references note C18): z about 0.08.
+    pack's default u of 1 K + 0.2 % each (common practice): z about 0.08.
 
     >>> u = 1.0 + 0.002 * 507.7
     >>> round(float(z_score(507.82 - 507.6, u, u)), 2)

@@ -6,8 +6,9 @@ point, which can differ (n-heptane: 541.23 K computed vs 540.13 K reducing).
 Tb is solved from the EOS at 101 325 Pa only where the triple-point
 pressure lies below 1 atm (carbon dioxide has no normal boiling point);
 the triple-point temperature stands in for the melting point (within 0.3 K
-for common fluids, references note C13). Saturation pressures are computed
-between the triple point and the EOS's critical temperature.
+of the 1-atm melting point for the common fluids tested, computed).
+Saturation pressures are computed between the triple point and the EOS's
+critical temperature.
 """
 
 from __future__ import annotations

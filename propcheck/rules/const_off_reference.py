@@ -22,7 +22,7 @@ Method
     median of at least three is named as standing apart and left out; the
     consensus is the median of the rest, its uncertainty the median stated
     uncertainty combined with their spread. ``z = |d| / sqrt(u_db^2 + u_c^2)``
-    (GUM combined standard uncertainty; references note C18). Sources state
+    (GUM combined standard uncertainty, JCGM 100:2008). Sources state
     their uncertainty (CRC Handbook) or get the pack default, as does the
     database value. Warning when ``z > warn_z``; error when ``z > error_z``
     and at least ``min_sources_for_error`` kept sources each disagree with

@@ -12,7 +12,7 @@ Method
     M = sum n_i Ar_i with IUPAC 2021 abridged standard atomic weights
     (Prohaska et al. 2022). Older tables (chemicals: H 1.00794, C 12.0107)
     differ by <= 0.005 g/mol on common compounds, hence the tolerance
-    0.02 g/mol + 2e-4 M (references C16). A warning beyond it, an error
+    0.02 g/mol + 2e-4 M (common practice). A warning beyond it, an error
     beyond ``error_g_per_mol`` (one hydrogen is 1.008). Isomers share M: a
     formula of the wrong isomer passes. The repair (kg/mol, transposed
     digits) comes from the shared slip diagnosis.

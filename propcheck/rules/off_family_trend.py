@@ -17,7 +17,7 @@ Method
     Leave-one-out quadratic in ln n through <= 3 neighbours each side (>= 4
     points, at least one each side: the ends are not extrapolated), solved
     for all members at once; pass 2 drops the worst member from its
-    neighbours' fits (references C14; smooth IUPAC recommendations against
+    neighbours' fits (common practice; smooth IUPAC recommendations against
     carbon number, Ambrose and Tsonopoulos 1995). Clean n-alkane residuals
     stay below 0.7 K (tc), 0.5 K (tb), 1.2 % (pc). Irregular heads of series
     (the first two 1-alkanols) are neither judged nor used; omega is not

@@ -12,7 +12,8 @@ Why it matters
 Method
     Pitzer's acentric factor, omega = -log10(p(0.7 tc)/pc) - 1 (Pitzer et
     al. 1955). Slightly negative values are real: hydrogen -0.22, helium
-    -0.39; above 1.5 is suspect (references section 2). The repair comes
+    -0.39 (CoolProp 8.0.0 reference EOS); above 1.5 is suspect (common
+    practice). The repair comes
     from the shared slip diagnosis.
 
 Parameters

@@ -11,7 +11,8 @@ Why it matters
 Method
     Guldberg's rule tb/tc ~ 2/3 (Guldberg 1890); IUPAC tc with CRC tb for
     653 organics: median 0.680, 1-99 % 0.605-0.815; long n-alkanes and
-    siloxanes reach 0.83, simple gases 0.57 (references C11). A warning
+    siloxanes reach 0.83, simple gases 0.57 (computed from the IUPAC series
+    and CRC Handbook 95th ed. as carried by chemicals 1.5.2). A warning
     outside the band, an error below ``error_below`` (K/degC mix-ups, 1000x
     slips). tb >= tc is left to ``phase-order-violated``. A compound without
     tb (it sublimes at 1 atm) is not judged. The column and the repair come

@@ -14,7 +14,8 @@ Why it matters
 Method
     Zc = pc vc / (R tc), R = 8.314462618 J/(mol K) (SI 2019). IUPAC set of
     421 compounds: median 0.264, 1-99 % 0.199-0.302, range 0.163-0.329
-    (references C12). Warning outside ``band``, error outside ``error_band``;
+    (computed from the IUPAC series as carried by chemicals 1.5.2). Warning
+    outside ``band``, error outside ``error_band``;
     stored zc: warning beyond ``match_tolerance``, error beyond
     ``match_error``. The column and repair come from the shared slip
     diagnosis (vc, pc, tc, zc tried).

@@ -1,7 +1,7 @@
 """Published constants raise no error; every usual slip injected into them is found and diagnosed.
 
-Check values: tests/published_constants.py (the reference note's section 3:
-IUPAC critical series, CRC Handbook 95th ed., reference equations of state).
+Check values: tests/published_constants.py (IUPAC critical series, CRC
+Handbook 95th ed., reference equations of state).
 Unit factors: SI brochure 2019 (exact); 1 atm = 101325 Pa, psi and mmHg as
 in propcheck.physics.unit_slips (NIST SP 811).
 """

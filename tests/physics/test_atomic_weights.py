@@ -10,7 +10,8 @@ from tests.published_constants import _ROWS
 
 @pytest.mark.parametrize("row", _ROWS, ids=[r[0] for r in _ROWS])
 def test_molar_mass_matches_iupac_2021(row):
-    # M column of the reference note section 3: IUPAC 2021 conventional weights, 3 decimals
+    # M column of tests/published_constants.py: IUPAC 2021 conventional weights, 3 decimals
+    # (Prohaska et al., Pure Appl. Chem. 94, 573 (2022))
     name, _, formula, _, m = row[:5]
     assert float(molar_mass([formula])[0]) == pytest.approx(m, abs=0.0015)
 

@@ -33,7 +33,8 @@ def test_source_with_a_slip_stands_apart_and_leaves_the_consensus():
 
 
 def test_two_disagreeing_sources_widen_the_tolerance():
-    # methanol Pc: IUPAC Part 4 8.084 MPa vs de Reuck 1993 EOS 8.216 MPa (references note section 5)
+    # methanol Pc: IUPAC Part 4 (Gude & Teja, J. Chem. Eng. Data 40, 1025 (1995)) 8.084 MPa
+    # vs the de Reuck 1993 reference EOS in CoolProp 8.0.0, 8.216 MPa
     long = pd.DataFrame({"key": 1, "property": "pc", "source": ["IUPAC", "EOS"], "value": [8.084e6, 8.216e6]})
     long["uncertainty"] = 0.02 * long["value"]
     summary, apart = consensus(long, ["key", "property"])

@@ -2,7 +2,7 @@
 
 The fixture is an unchanged snapshot of chemicals 1.5.2 compilations and
 CoolProp 8.0.0 for nine compounds (see make_reference_fixture.py). Database
-values below are the published values of references note section 3.
+values below are published values (sources named beside CLEAN).
 """
 
 from __future__ import annotations
@@ -17,7 +17,7 @@ from tests.reference.conftest import FIXTURE
 
 RULES = ("identity-mismatch", "reference-missing", "const-off-reference", "vp-off-reference")
 
-# Published values (references note section 3): IUPAC critical series (Ambrose & Tsonopoulos 1995 for
+# Published values: IUPAC critical series (Ambrose & Tsonopoulos 1995 for
 # n-hexane, Tsonopoulos & Ambrose 1995 for benzene), IAPWS R2-83 for water, Span et al. 2000 EOS for
 # nitrogen; Tb from the CRC Handbook 95th ed. (water: IAPWS-95, 373.124 K); omega from the reference EOS.
 CLEAN = [
@@ -30,7 +30,8 @@ CLEAN = [
     {"compound_id": "C4", "name": "nitrogen", "cas": "7727-37-9", "formula": "N2", "molar_mass": 28.014,
      "tc": 126.192, "pc": 3395800, "tb": 77.355, "omega": 0.037, "zc": 0.289},
 ]
-# Tb is where p_sat = 101325 Pa by definition (references note C8): n-hexane 341.87 K (CRC), water 373.124 K (IAPWS-95).
+# Tb is where p_sat = 101325 Pa by definition (normal boiling point, common practice):
+# n-hexane 341.87 K (CRC), water 373.124 K (IAPWS-95).
 POINTS = [{"compound_id": "C1", "t": 341.87, "p": 101325}, {"compound_id": "C3", "t": 373.124, "p": 101325}]
 
 
