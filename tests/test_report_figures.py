@@ -1,35 +1,87 @@
-"""Plot data behind report.html: the robust vapor-pressure fit, corrections, caps."""
+"""Plot data behind report.html: the run's fitted vapor-pressure curve, corrections, caps."""
 
 from __future__ import annotations
 
 import numpy as np
 import pytest
 
-from propcheck.report.figures import _fit, corrected_value, fit_ln_p
+from propcheck.report.figures import corrected_value
 
 
-def test_robust_fit_ignores_a_unit_slip():
+def _curve_line(fig, label):
+    """The line of ``fig`` drawn with legend label ``label`` (legend labels are wrapped), else None."""
+    lines = [line for line in fig.axes[0].get_lines() if line.get_label().replace("\n", " ") == label]
+    assert len(lines) <= 1
+    return lines[0] if lines else None
+
+
+def test_drawn_curve_is_the_curve_the_rules_used():
+    import matplotlib.pyplot as plt
+
+    from propcheck.curves import curves
+    from propcheck.pipeline import run_check
+    from propcheck.report import build_report_data
+    from propcheck.report.html import render_html
+    from propcheck.report.plots import compound_figure
+    from tests.conftest import SAMPLE_DB
+
+    result = run_check(str(SAMPLE_DB))
+    judged = result.db.cache["curves"]  # the object the vapor-pressure rules fitted and judged by
+    data = build_report_data(result)
+    assert curves(result.db) is judged  # the report did not refit
+    where = judged.index()
+    page = render_html(data)
+    drawn = without = 0
+    for panel in data.panels:
+        g = where.get(panel.compound_id)
+        fig = compound_figure(panel)
+        try:
+            lines = fig.axes[0].get_lines()
+            if g is None or judged.fit.form_name(g) == "none":  # the run fitted no curve: points only
+                assert panel.curve_label == "" and len(panel.curve_t) == 0
+                assert len(panel.t) and lines and all(line.get_linestyle() == "None" for line in lines)
+                without += 1
+                continue
+            label = judged.describe(g)
+            line = _curve_line(fig, label)
+            assert line is not None, (panel.compound_id, label)
+            t = 1000.0 / np.asarray(line.get_xdata(), dtype=float)
+            y = np.asarray(line.get_ydata(), dtype=float)
+            assert len(t) >= 100
+            np.testing.assert_allclose(y, judged.fit.ln_p(t, g), rtol=1e-9, atol=1e-9)
+            # it spans the fitted points (those below tc) and, with tc known, runs on to tc
+            fitted = panel.t[(panel.t > 0) & (panel.p > 0) & (panel.t < (panel.tc or np.inf))]
+            assert t.min() == pytest.approx(fitted.min()) and t.max() >= fitted.max() - 1e-9
+            if panel.tc:
+                assert t.max() == pytest.approx(panel.tc)
+            assert f"Curve: {label}," in page
+            drawn += 1
+        finally:
+            plt.close(fig)
+    assert drawn >= 5 and without >= 1  # the sample has both kinds of flagged compound
+
+
+def test_drawn_curve_follows_iapws_water_despite_a_unit_slip(tmp_path):
     iapws97 = pytest.importorskip("iapws.iapws97")
+    from propcheck.pipeline import run_check
+    from propcheck.report import build_report_data
+    from tests.conftest import write_db
+
     # water saturation pressures from IAPWS-IF97 (the iapws package), 300-600 K
     t = np.linspace(300.0, 600.0, 9)
     p = np.array([iapws97._PSat_T(x) * 1e6 for x in t])
     slipped = p.copy()
     slipped[4] /= 1000.0  # kPa entered as Pa
-    beta, form = _fit(t, slipped, np.zeros(len(t), dtype=int), 1)
-    assert form[0].startswith("ln p = A + B/T + C ln T")
-    predicted = np.exp(fit_ln_p(beta[0], t))
-    assert predicted[4] == pytest.approx(p[4], rel=0.02)  # the fit follows the good points, not the slip
-    good = np.arange(len(t)) != 4
-    assert np.allclose(predicted[good], p[good], rtol=0.02)
-
-
-def test_two_constant_fit_for_few_points():
-    # three IAPWS-IF97 verification values (IAPWS-IF97, Table 35): 300 K, 500 K, 600 K
-    t = np.array([300.0, 500.0, 600.0])
-    p = np.array([3536.58941, 2638897.76, 12344314.6])
-    beta, form = _fit(t, p, np.zeros(3, dtype=int), 1)
-    assert "Clausius-Clapeyron" in form[0] and beta[0][2] == 0.0
-    assert np.all(np.diff(fit_ln_p(beta[0], t)) > 0)
+    # critical point of water: IAPWS R6-95 (2018), tc = 647.096 K, pc = 22.064 MPa
+    compound = {"compound_id": "water", "name": "water", "tc": 647.096, "pc": 22.064e6}
+    points = [{"compound_id": "water", "t": float(x), "p": float(y)} for x, y in zip(t, slipped)]
+    data = build_report_data(run_check(str(write_db(tmp_path / "db", [compound], points))))
+    (panel,) = [x for x in data.panels if x.compound_id == "water"]
+    assert panel.flagged.tolist() == [i == 4 for i in range(len(t))]
+    assert panel.curve_label.endswith("fit of 9 points (robust)")
+    # the drawn curve follows the published values, not the slip, from 300 K up to the critical point
+    reference = np.array([iapws97._PSat_T(x) * 1e6 for x in np.minimum(panel.curve_t, 647.096)])
+    np.testing.assert_allclose(np.exp(panel.curve_ln_p), reference, rtol=0.02)
 
 
 def test_corrected_value_parsing():

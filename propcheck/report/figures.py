@@ -1,18 +1,18 @@
 """Data behind the report's plots, built once from the run (no drawing here).
 
-Per flagged compound: its vapor-pressure points, a robust fit of
-``ln p = A + B/T + C ln T`` (the first terms of Riedel's equation; the
-two-constant Clausius-Clapeyron form ``ln p = A + B/T`` when a compound has
-fewer than five points), the normal boiling point at 101.325 kPa, the
-critical point, the points a finding names and the corrected value where a
-rule diagnosed a slip. Per family: tc, tb and pc against molar mass with the
-members a finding names.
+Per flagged compound: its vapor-pressure points, the fitted curve the rules
+judged it by (:func:`propcheck.curves.curves`, the run's cached fit: Wagner,
+Riedel, Antoine or Clausius-Clapeyron, chosen per compound) sampled from its
+lowest point below tc on to the critical point, the normal boiling point at
+101.325 kPa, the critical point, the points a finding names and the
+corrected value where a rule diagnosed a slip. Per family: tc, tb and pc
+against molar mass with the members a finding names.
 
 References
 ----------
-.. [1] L. Riedel, Chem.-Ing.-Tech. 26, 83 (1954) (vapor-pressure form).
-.. [2] B. E. Poling, J. M. Prausnitz, J. P. O'Connell, The Properties of Gases and
-   Liquids, 5th ed., McGraw-Hill (2001), ch. 7.
+.. [1] B. E. Poling, J. M. Prausnitz, J. P. O'Connell, The Properties of Gases and
+   Liquids, 5th ed., McGraw-Hill (2001), ch. 7 (the vapor-pressure forms of
+   :mod:`propcheck.physics.vp_fit`).
 """
 
 from __future__ import annotations
@@ -23,8 +23,8 @@ from dataclasses import dataclass, field
 import numpy as np
 import pandas as pd
 
+from propcheck.curves import curves
 from propcheck.database import Database
-from propcheck.physics.grouped_fit import robust_grouped_fit
 from propcheck.physics.vapor_pressure import P_ATM
 
 __all__ = ["CompoundPanel", "FamilyPanel", "build_compound_panels", "build_family_panels", "corrected_value"]
@@ -57,8 +57,9 @@ class CompoundPanel:
     t: np.ndarray  # K, all points
     p: np.ndarray  # Pa
     flagged: np.ndarray  # bool per point: a finding names it
-    fit_beta: np.ndarray | None  # A, B, C of ln p = A + B/T + C ln T (C = 0 for two-constant fits)
-    fit_form: str
+    curve_t: np.ndarray  # K, where the run's fitted curve is drawn (empty: no fitted curve)
+    curve_ln_p: np.ndarray  # ln(p / Pa) of that curve at curve_t
+    curve_label: str  # Curves.describe(), e.g. "Riedel fit of 8 points (robust)"; "" without a curve
     tb: float | None
     tc: float | None
     pc: float | None
@@ -77,27 +78,46 @@ class FamilyPanel:
     n_flagged: int
 
 
-def _fit(t: np.ndarray, p: np.ndarray, group: np.ndarray, n: int) -> tuple[np.ndarray, np.ndarray]:
-    """Robust fits for all groups at once; returns beta (n, 3) and the form per group."""
-    ok = np.isfinite(t) & np.isfinite(p) & (t > 0) & (p > 0)
-    t, p, group = t[ok], p[ok], group[ok]
-    counts = np.bincount(group, minlength=n)
-    y = np.log(p)
-    beta = np.full((n, 3), np.nan)
-    form = np.full(n, "", dtype=object)
-    if len(t) == 0:
-        return beta, form
-    x3 = np.column_stack([np.ones_like(t), 1.0 / t, np.log(t)])
-    three = robust_grouped_fit(x3, y, group, n, min_scale=1e-3).beta
-    two = robust_grouped_fit(x3[:, :2], y, group, n, min_scale=1e-3).beta
-    use3 = (counts >= 5) & np.isfinite(three).all(axis=1)
-    use2 = ~use3 & (counts >= 2) & np.isfinite(two).all(axis=1)
-    beta[use3] = three[use3]
-    beta[use2, :2] = two[use2]
-    beta[use2, 2] = 0.0
-    form[use3] = "ln p = A + B/T + C ln T (robust, Riedel-type)"
-    form[use2] = "ln p = A + B/T (robust, Clausius-Clapeyron)"
-    return beta, form
+CURVE_SAMPLES = 120  # temperatures per drawn curve, evenly spaced in 1/T
+
+
+def _run_curves(db: Database, compounds: list[str], t: np.ndarray, p: np.ndarray, group: np.ndarray,
+                tc: np.ndarray) -> tuple[np.ndarray, np.ndarray, list[str]]:
+    """The run's fitted curve of each compound, sampled over its points below tc and on to tc.
+
+    Returns temperatures and ln p, both (len(compounds), CURVE_SAMPLES) with
+    NaN rows where the run has no curve, and the curve's description ("" if none).
+    """
+    n = len(compounds)
+    t_curve = np.full((n, CURVE_SAMPLES), np.nan)
+    ln_curve = np.full((n, CURVE_SAMPLES), np.nan)
+    labels = [""] * n
+    cv = curves(db)  # the object the rules used (cached on db), computed here if no rule asked for it
+    if cv is None or len(t) == 0:
+        return t_curve, ln_curve, labels
+    # the span of the points the run fitted (t > 0, p > 0, below tc), extended to tc
+    with np.errstate(invalid="ignore"):
+        usable = (t > 0) & (p > 0) & ~(t >= tc[group])
+    lo = np.full(n, np.inf)
+    hi = np.full(n, -np.inf)
+    np.minimum.at(lo, group[usable], t[usable])
+    np.maximum.at(hi, group[usable], t[usable])
+    hi = np.where(np.isfinite(tc) & (tc > hi), tc, hi)
+    where = cv.index()
+    g = np.array([where.get(cid, -1) for cid in compounds])  # loop over the capped panels only
+    has = (g >= 0) & np.isfinite(lo) & (hi > lo)
+    if not has.any():
+        return t_curve, ln_curve, labels
+    frac = np.linspace(0.0, 1.0, CURVE_SAMPLES)
+    tt = 1.0 / (1.0 / lo[has, None] + frac * (1.0 / hi[has, None] - 1.0 / lo[has, None]))
+    tt[:, 0], tt[:, -1] = lo[has], hi[has]  # exact ends: the reduced Wagner form is NaN a rounding error past tc
+    ln_p = cv.fit.ln_p(tt, g[has, None])
+    drawn = np.isfinite(ln_p).any(axis=1)  # form 'none' (too few points) evaluates to NaN everywhere
+    rows = np.nonzero(has)[0][drawn]
+    t_curve[rows], ln_curve[rows] = tt[drawn], ln_p[drawn]
+    for i in rows:
+        labels[i] = cv.describe(g[i])
+    return t_curve, ln_curve, labels
 
 
 def build_compound_panels(db: Database, findings: pd.DataFrame, compounds: list[str]) -> list[CompoundPanel]:
@@ -123,7 +143,8 @@ def build_compound_panels(db: Database, findings: pd.DataFrame, compounds: list[
     group = points["compound_id"].map(index).to_numpy(dtype=int)
     t_all = points["t"].to_numpy(dtype=float)
     p_all = points["p"].to_numpy(dtype=float)
-    beta, form = _fit(t_all, p_all, group, len(compounds))
+    tc_all = info["tc"].reindex(compounds).to_numpy(dtype=float) if len(info) else np.full(len(compounds), np.nan)
+    curve_t, curve_ln_p, curve_label = _run_curves(db, compounds, t_all, p_all, group, tc_all)
     mine = findings[findings["compound_id"].isin(index)]
     point_findings = mine[mine["t"].notna() & (mine["table"] == "vapor_pressure")]
     flagged_keys = set(zip(point_findings["compound_id"], pd.to_numeric(point_findings["t"]).round(6)))
@@ -152,8 +173,9 @@ def build_compound_panels(db: Database, findings: pd.DataFrame, compounds: list[
             n_findings=len(frame),
             rules=sorted(set(frame["rule"])),
             t=t_all[sl], p=p_all[sl], flagged=flagged_all[sl],
-            fit_beta=beta[i] if np.isfinite(beta[i]).all() else None,
-            fit_form=form[i] or "",
+            curve_t=curve_t[i][np.isfinite(curve_ln_p[i])],
+            curve_ln_p=curve_ln_p[i][np.isfinite(curve_ln_p[i])],
+            curve_label=curve_label[i],
             tb=_num(row["tb"]) if row is not None else None,
             tc=_num(row["tc"]) if row is not None else None,
             pc=_num(row["pc"]) if row is not None else None,
@@ -168,11 +190,6 @@ def _num(value) -> float | None:
     except (TypeError, ValueError):
         return None
     return out if np.isfinite(out) else None
-
-
-def fit_ln_p(beta: np.ndarray, t: np.ndarray) -> np.ndarray:
-    """Evaluate ``ln p = A + B/T + C ln T``."""
-    return beta[0] + beta[1] / t + beta[2] * np.log(t)
 
 
 def build_family_panels(db: Database, findings: pd.DataFrame, limit: int = 12) -> list[FamilyPanel]:

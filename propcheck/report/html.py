@@ -161,7 +161,10 @@ def _panels(data: ReportData) -> str:
         )
         if mine is not None and len(mine) > 4:
             items += f'<li class="note">and {len(mine) - 4} more in the findings table</li>'
-        fit = f'<div class="fit">Curve: {html.escape(panel.fit_form)}, fitted to this compound\'s points.</div>' if panel.fit_form else ""
+        if panel.curve_label:
+            fit = f'<div class="fit">Curve: {html.escape(panel.curve_label)}, the one the rules judged these points by.</div>'
+        else:
+            fit = '<div class="fit">No fitted curve for this compound: points only.</div>' if len(panel.t) else ""
         cards.append(
             f'<div class="panel" id="panel-{_e(panel.compound_id)}"><header><b>{_e(panel.compound_id)}</b>'
             f'<span>{_e(panel.name)} &middot; {panel.n_findings} finding(s) &middot; '
@@ -171,7 +174,7 @@ def _panels(data: ReportData) -> str:
     more = data.n_flagged_compounds - len(data.panels)
     note = f'<p class="note">{more} further flagged compound(s) without a panel (see the findings table).</p>' if more > 0 else ""
     return (
-        '<p class="lead">ln p against 1/T for each flagged compound, worst first: the data points, a robust fit, flagged '
+        '<p class="lead">ln p against 1/T for each flagged compound, worst first: the data points, the fitted curve the rules judged them by, flagged '
         "points (red crosses), the normal boiling point at 101.325 kPa (square), the critical point (diamond) and, where "
         "a rule diagnosed a slip, the corrected value (green ring).</p>"
         f'<div class="panels">{"".join(cards)}</div>{note}'

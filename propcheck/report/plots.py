@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import io
 import re
+import textwrap
 
 import matplotlib
 
@@ -12,9 +13,9 @@ matplotlib.use("Agg")  # no display, no GUI toolkit
 import matplotlib.pyplot as plt  # noqa: E402
 import numpy as np  # noqa: E402
 
-from propcheck.report.figures import P_NORMAL, CompoundPanel, FamilyPanel, fit_ln_p  # noqa: E402
+from propcheck.report.figures import P_NORMAL, CompoundPanel, FamilyPanel  # noqa: E402
 
-__all__ = ["compound_svg", "family_svg", "history_svg"]
+__all__ = ["compound_figure", "compound_svg", "family_svg", "history_svg"]
 
 INK = "#1f2a36"
 GRID = "#d5dbe1"
@@ -56,6 +57,12 @@ def _svg(fig) -> str:
 def compound_svg(panel: CompoundPanel) -> str:
     """ln p against 1/T: points, fitted curve, flagged points, tb, critical point, corrections."""
     with plt.rc_context(_STYLE):
+        return _svg(compound_figure(panel))
+
+
+def compound_figure(panel: CompoundPanel):
+    """The matplotlib figure behind :func:`compound_svg` (the caller closes it)."""
+    with plt.rc_context(_STYLE):
         fig, ax = plt.subplots(figsize=(4.6, 3.1), layout="constrained")
         x_all = [1.0 / panel.t] if len(panel.t) else []
         good = np.isfinite(panel.p) & (panel.p > 0) & (panel.t > 0)
@@ -65,13 +72,8 @@ def compound_svg(panel: CompoundPanel) -> str:
         bad = good & panel.flagged
         if bad.any():
             ax.plot(1000.0 / panel.t[bad], np.log(panel.p[bad]), "X", ms=7, color=FLAG, label="flagged point")
-        t_ends = list(panel.t[good])  # the curve spans the data and runs on to the critical point
-        if panel.tc and t_ends and panel.tc > max(t_ends):
-            t_ends.append(panel.tc)
-        if panel.fit_beta is not None and len(t_ends) >= 2:
-            lo, hi = min(t_ends), max(t_ends)
-            tt = 1.0 / np.linspace(1.0 / lo, 1.0 / hi, 120)
-            ax.plot(1000.0 / tt, fit_ln_p(panel.fit_beta, tt), "-", lw=1.2, color=FIT, label="robust fit")
+        if len(panel.curve_t) >= 2:  # the run's own curve (the one the rules judged by), sampled in figures.py
+            ax.plot(1000.0 / panel.curve_t, panel.curve_ln_p, "-", lw=1.2, color=FIT, label=_wrap(panel.curve_label))
         if panel.tb:
             ax.plot([1000.0 / panel.tb], [np.log(P_NORMAL)], "s", ms=6, mfc="white", mec=MARK, mew=1.5,
                     label="tb at 101.325 kPa")
@@ -100,7 +102,12 @@ def compound_svg(panel: CompoundPanel) -> str:
         handles, labels = ax.get_legend_handles_labels()
         if handles:
             ax.legend(loc="best")
-        return _svg(fig)
+        return fig
+
+
+def _wrap(label: str, width: int = 34) -> str:
+    """A long curve description on two or more legend lines."""
+    return textwrap.fill(label, width) if label else "fitted curve"
 
 
 RASTER_ABOVE = 400  # members beyond which a family plot's points are drawn as an embedded bitmap
