@@ -17,7 +17,7 @@ from propcheck.physics.unit_slips import PRESSURE_SLIPS
 from propcheck.physics.vapor_pressure import lee_kesler_psat
 from propcheck.physics.vp_fit import FORM_TITLES, FORMS, VpFit, fit_in_blocks
 
-__all__ = ["Curves", "curves"]
+__all__ = ["CurvePoints", "Curves", "curve_points", "curves"]
 
 CS_TR_RANGE = (0.5, 1.0)  # Lee-Kesler is reliable here within a few percent (Poling et al. ch. 7)
 
@@ -78,24 +78,68 @@ class Curves:
         return np.array([found.get(int(r)) for r in rows], dtype=object)
 
 
+# Compounds with points to fit get their group index once (thousands of rows), so the
+# million-row points query is a plain join and sort, with no window over it.
+_GROUPS_SQL = """
+CREATE OR REPLACE TEMP TABLE _curve_groups AS
+SELECT row_number() OVER (ORDER BY compound_id) - 1 AS g, compound_id, tc FROM compounds
+WHERE compound_id IN (SELECT v.compound_id FROM vapor_pressure v JOIN compounds c USING (compound_id)
+                      WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc))
+"""
+
 _POINTS_SQL = """
-SELECT dense_rank() OVER (ORDER BY v.compound_id) - 1 AS g, v.t, v.p,
-       coalesce(v.uncertainty, 'NaN'::DOUBLE) AS u, v._row AS row
-FROM vapor_pressure v JOIN compounds c USING (compound_id)
+SELECT c.g, v.t, v.p, coalesce(v.uncertainty, 'NaN'::DOUBLE) AS u, v._row AS row
+FROM vapor_pressure v JOIN _curve_groups c USING (compound_id)
 WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc)
-ORDER BY g, v.t, v._row
+ORDER BY c.g, v.t, v._row
 """
 
 _COMPOUNDS_SQL = """
-WITH ids AS (SELECT DISTINCT v.compound_id FROM vapor_pressure v JOIN compounds c USING (compound_id)
-             WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc))
 SELECT c.compound_id, c._row AS row, coalesce(c.source, '') AS source,
        coalesce(c.tc, 'NaN'::DOUBLE) AS tc, coalesce(c.pc, 'NaN'::DOUBLE) AS pc,
        coalesce(c.omega, 'NaN'::DOUBLE) AS omega, coalesce(c.tb, 'NaN'::DOUBLE) AS tb,
        coalesce(c.tm, 'NaN'::DOUBLE) AS tm
-FROM compounds c JOIN ids USING (compound_id)
-ORDER BY c.compound_id
+FROM compounds c JOIN _curve_groups USING (compound_id)
+ORDER BY _curve_groups.g
 """
+
+
+@dataclass
+class CurvePoints:
+    """The points a curve is fitted to (0 < t < tc, p > 0), sorted by (compound, t, row), and their compounds."""
+
+    ids: np.ndarray  # (G,) compound_id per group, sorted
+    group: np.ndarray  # (n,)
+    t: np.ndarray
+    p: np.ndarray
+    u: np.ndarray  # stated uncertainty [Pa], NaN where none
+    row: np.ndarray
+    compounds: dict  # column -> (G,) array: row, source, tc, pc, omega, tb, tm
+
+
+def curve_points(db) -> CurvePoints | None:
+    """The run's sorted curve points (fetched on first use), or None without any."""
+    if "curve_points" not in db.cache:
+        db.cache["curve_points"] = _fetch_points(db) if db.has("vapor_pressure") else None
+    return db.cache["curve_points"]
+
+
+def _fetch_points(db) -> CurvePoints | None:
+    db.con.execute(_GROUPS_SQL)
+    try:
+        pts = db.con.execute(_POINTS_SQL).fetchnumpy()
+        comp = db.con.execute(_COMPOUNDS_SQL).fetchnumpy()
+    finally:
+        db.con.execute("DROP TABLE _curve_groups")
+    if len(pts["g"]) == 0:
+        return None
+    return CurvePoints(
+        ids=np.asarray(comp["compound_id"], dtype=object), group=np.asarray(pts["g"], dtype=np.int64),
+        t=np.asarray(pts["t"], float), p=np.asarray(pts["p"], float), u=np.asarray(pts["u"], float),
+        row=np.asarray(pts["row"]),
+        compounds={"row": np.asarray(comp["row"]), "source": np.asarray(comp["source"], dtype=object),
+                   **{c: np.asarray(comp[c], float) for c in ("tc", "pc", "omega", "tb", "tm")}},
+    )
 
 
 def curves(db) -> Curves | None:
@@ -106,23 +150,19 @@ def curves(db) -> Curves | None:
 
 
 def _compute(db) -> Curves | None:
-    pts = db.con.execute(_POINTS_SQL).fetchnumpy()
-    if len(pts["g"]) == 0:
+    pts = curve_points(db)
+    if pts is None:
         return None
-    comp = db.con.execute(_COMPOUNDS_SQL).fetchnumpy()
-    group = np.asarray(pts["g"], dtype=np.int64)
-    n_groups = len(comp["compound_id"])
-    tc, pc = np.asarray(comp["tc"], float), np.asarray(comp["pc"], float)
-    t, p = np.asarray(pts["t"], float), np.asarray(pts["p"], float)
+    comp = pts.compounds
+    group, t, p, tc, pc = pts.group, pts.t, pts.p, comp["tc"], comp["pc"]
+    n_groups = len(pts.ids)
     fit = fit_in_blocks(group, t, p, n_groups, tc, pc)
-    omega = np.asarray(comp["omega"], float)
+    omega = comp["omega"]
     log_ratio, n_cs = _cs_log_ratio(group, t, p, n_groups, tc, pc, omega)
     factor, slip = _series_slip(log_ratio)
     return Curves(
-        ids=np.asarray(comp["compound_id"], dtype=object), group=group, t=t, p=p,
-        u=np.asarray(pts["u"], float), row=np.asarray(pts["row"]), db=db,
-        c_row=np.asarray(comp["row"]), c_source=np.asarray(comp["source"], dtype=object), tc=tc, pc=pc,
-        omega=omega, tb=np.asarray(comp["tb"], float), tm=np.asarray(comp["tm"], float), fit=fit,
+        ids=pts.ids, group=group, t=t, p=p, u=pts.u, row=pts.row, db=db, c_row=comp["row"],
+        c_source=comp["source"], tc=tc, pc=pc, omega=omega, tb=comp["tb"], tm=comp["tm"], fit=fit,
         cs_log_ratio=log_ratio, cs_points=n_cs, series_factor=factor, series_slip=slip,
     )
 
@@ -135,10 +175,8 @@ def _cs_log_ratio(group, t, p, n_groups, tc, pc, omega):
     with np.errstate(all="ignore"):
         ratio = np.log(p / lee_kesler_psat(t, tc[group], pc[group], omega[group]))
     ratio = np.where(use, ratio, np.nan)
-    n_cs = np.bincount(group[use], minlength=n_groups)
-    # median over usable points only: push unusable ones into a spare group
-    g2 = np.where(use, group, n_groups)
-    med = group_median(np.where(use, ratio, 0.0), g2, n_groups + 1)[:n_groups]
+    n_cs = np.bincount(group, use, minlength=n_groups).astype(np.int64)
+    med = group_median(ratio, group, n_groups)  # NaN (unusable) points are left out
     return np.where(n_cs > 0, med, np.nan), n_cs
 
 

@@ -2,8 +2,10 @@
 
 For every compound: its numeric constants, the molar mass of its formula
 (IUPAC 2021 weights), its family's leave-one-out trend for tc, tb, pc and
-omega (see off-family-trend), and the span of its own vapor-pressure points (a
-Clausius-Clapeyron interpolation gives tb when 101325 Pa lies inside).
+omega (see off-family-trend), and its own vapor-pressure points: their span,
+the run's fitted curve (``propcheck.curves``) solved for 101325 Pa and taken
+at 0.7 tc (Pitzer's omega), else a Clausius-Clapeyron interpolation of the
+two points bracketing 101325 Pa.
 """
 
 from __future__ import annotations
@@ -15,7 +17,8 @@ import pandas as pd
 
 from propcheck.physics.atomic_weights import molar_mass, parse_formula
 from propcheck.physics.family_trend import trend_outliers
-from propcheck.physics.vapor_pressure import P_ATM
+from propcheck.physics.vapor_pressure import P_ATM, omega_from_psat
+from propcheck.physics.vp_fit import FORMS
 
 __all__ = ["NUMERIC", "TREND_COLUMNS", "Context", "FAMILY_DEFAULTS", "get_context"]
 
@@ -36,6 +39,14 @@ FAMILY_DEFAULTS = {
     "max_off_share": 0.5,
 }
 
+# Defaults of the rules that judge a compound by its own curve, used when the
+# run's pack does not give them (rules/default.toml gives the basis of each).
+CURVE_DEFAULTS = {
+    "tb-off-vp-curve": {"tol_wagner": 0.5, "tol_antoine": 1.0, "tol_cc": 2.0, "extrapolation_widening": 0.05},
+    "omega-off-vp-curve": {"tol": 0.015, "max_extrapolation": 0.05},
+}
+BRACKET_TB_TOL = 2.0  # K, tb from the two points bracketing 101325 Pa (Clausius-Clapeyron; common practice)
+
 
 @dataclass
 class Context:
@@ -51,7 +62,12 @@ class Context:
     x: np.ndarray | None = None  # ln(carbon number), else ln(molar mass)
     head: np.ndarray | None = None  # irregular heads of series: neither judged nor used
     vp_tmax: np.ndarray | None = None
-    vp_tb: np.ndarray | None = None
+    vp_tb: np.ndarray | None = None  # tb of its own points: the fitted curve's, else the bracketing points'
+    vp_tb_tol: np.ndarray | None = None  # K; tb-off-vp-curve's tolerance where from the curve
+    curve: object | None = None  # the run's VpFit (propcheck.curves), None without fitted curves
+    curve_g: np.ndarray | None = None  # each row's compound in ``curve``; -1 none or the series is scaled
+    curve_omega_tol: float = CURVE_DEFAULTS["omega-off-vp-curve"]["tol"]
+    curve_omega_extrapolation: float = CURVE_DEFAULTS["omega-off-vp-curve"]["max_extrapolation"]
     # median of the independent reference sources per column (NaN where none), when reference checks run
     reference: dict[str, np.ndarray] = field(default_factory=dict)
 
@@ -64,6 +80,27 @@ class Context:
         else:
             dev = values - exp
         return np.where(self.judged[column][rows], np.abs(dev) / self.tolerance[column][rows], np.nan)
+
+    def curve_omega(self, rows: np.ndarray, tc: np.ndarray, pc: np.ndarray) -> np.ndarray:
+        """Pitzer's omega of each row's own fitted curve, taken with ``tc`` and ``pc``; NaN where none.
+
+        omega = -log10(p_sat(0.7 tc) / pc) - 1 (Pitzer et al. 1955), only
+        where 0.7 tc lies within the points or at most
+        ``curve_omega_extrapolation`` x tc beyond them (as omega-off-vp-curve).
+        """
+        out = np.full(len(rows), np.nan)
+        if self.curve is None:
+            return out
+        g = self.curve_g[rows]
+        has = g >= 0
+        gs = np.where(has, g, 0)
+        tc = np.asarray(tc, dtype=float)
+        t07 = 0.7 * tc
+        margin = self.curve_omega_extrapolation * tc
+        with np.errstate(all="ignore"):
+            inside = has & (t07 >= self.curve.t_min[gs] - margin) & (t07 <= self.curve.t_max[gs] + margin)
+            omega = omega_from_psat(np.exp(self.curve.ln_p(t07, gs)), pc)
+        return np.where(inside, omega, out)
 
     def expected_value(self, column: str, row: int) -> float:
         value = self.expected[column][row]
@@ -142,8 +179,54 @@ def build_context(db, params: dict | None = None) -> Context:
         ctx.tolerance[column] = tol
         ctx.neighbours[column] = nb
     ctx.vp_tmax, ctx.vp_tb = _vp_summary(db, frame["compound_id"])
+    ctx.vp_tb_tol = np.full(len(frame), BRACKET_TB_TOL)
+    _own_curves(db, ctx)
     ctx.reference = _reference_medians(db, frame["_row"])
     return ctx
+
+
+def _settings(pack, rule_id: str) -> dict:
+    settings = dict(CURVE_DEFAULTS[rule_id])
+    if pack is not None and pack.enabled(rule_id):
+        settings.update({k: v for k, v in pack.params(rule_id).items() if k in settings})
+    return settings
+
+
+def _own_curves(db, ctx: Context) -> None:
+    """Each row's fitted curve; its tb (with tb-off-vp-curve's tolerance) replaces the bracketing points'.
+
+    Only when a rule that judges compounds by their curves runs (the fit is
+    then made once for the run anyway). Series that ``vp-series-scaled``
+    finds off by a unit factor are left out.
+    """
+    pack = db.cache.get("pack")
+    if not db.has("vapor_pressure") or (
+            pack is not None and not (pack.enabled("tb-off-vp-curve") or pack.enabled("omega-off-vp-curve"))):
+        return
+    from propcheck.curves import curves
+
+    cv = curves(db)
+    if cv is None:
+        return
+    first = pd.Series(np.arange(len(cv.ids)), index=cv.ids)
+    first = first[~first.index.duplicated()]
+    g = first.reindex(ctx.frame["compound_id"].to_numpy()).to_numpy(dtype=float)
+    g = np.where(np.isfinite(g), g, -1).astype(np.int64)
+    gs = np.where(g >= 0, g, 0)
+    fit = cv.fit
+    usable = (g >= 0) & (fit.form[gs] > 0) & ~np.isfinite(cv.series_factor[gs])
+    ctx.curve, ctx.curve_g = fit, np.where(usable, g, -1)
+    omega = _settings(pack, "omega-off-vp-curve")
+    ctx.curve_omega_tol, ctx.curve_omega_extrapolation = float(omega["tol"]), float(omega["max_extrapolation"])
+    # tb where the curve reaches 101325 Pa, with tb-off-vp-curve's tolerance (by form, widened when extrapolating)
+    tb = _settings(pack, "tb-off-vp-curve")
+    tb_fit = np.where(usable, fit.t_at(P_ATM, gs), np.nan)
+    extrap = np.maximum(np.maximum(fit.t_min[gs] - tb_fit, tb_fit - fit.t_max[gs]), 0.0)
+    form = np.asarray(FORMS, dtype=object)[fit.form[gs]]
+    base = np.select([form == "wagner", form == "antoine"], [tb["tol_wagner"], tb["tol_antoine"]], tb["tol_cc"])
+    from_curve = np.isfinite(tb_fit)
+    ctx.vp_tb = np.where(from_curve, tb_fit, ctx.vp_tb)
+    ctx.vp_tb_tol = np.where(from_curve, base + tb["extrapolation_widening"] * extrap, ctx.vp_tb_tol)
 
 
 def _reference_medians(db, rows: pd.Series) -> dict[str, np.ndarray]:

@@ -7,8 +7,11 @@ the evidence available for that compound, all candidates at once:
   Zc = pc vc/(R tc) in the observed band and equal to a stored zc;
   omega in the observed range; the gross bounds of ``value-out-of-range``;
 * its own vapor-pressure curve: tb against Lee-Kesler from tc, pc, omega
-  (Lee & Kesler 1975), tc above its highest point, tb against the points
-  bracketing 101325 Pa;
+  (Lee & Kesler 1975), tc above its highest point, tb against the run's
+  fitted curve at 101325 Pa (tb-off-vp-curve's tolerance; else the points
+  bracketing 101325 Pa), omega against Pitzer's definition on the fitted
+  curve at 0.7 tc of the candidate's tc and pc (Pitzer et al. 1955;
+  omega-off-vp-curve's tolerance);
 * its family's trend and its formula's molar mass (IUPAC 2021 weights);
 * the median of the independent reference sources for the column, when the
   reference checks run (the compilations carried by chemicals and CoolProp's
@@ -20,6 +23,14 @@ smallest sum of z^2 (plus a small penalty for transposed digits, swaps and
 copies: unit slips are the commoner clerical error); it is proposed only if
 it fails fewer checks than the row as stored. "likely" when it leaves no check failing and no other
 candidate does as well, else "possibly".
+
+When the caller asks which of several columns is wrong (attribution), tb and
+omega are also tried at the values the compound's own fitted curve gives
+(101325 Pa; Pitzer's definition at 0.7 tc): a value that is no slip but
+disagrees with the compound's own points is then named, rather than a
+constant its points confirm. A slip landing within that check's tolerance
+of such a value is the same answer (not a rival) and is preferred: it says
+what went wrong.
 """
 
 from __future__ import annotations
@@ -48,7 +59,6 @@ EVIDENCE = {
     "omega_range": (-0.40, 1.5),
     "lk_tb": 2.0,
     "lk_polar_factor": 2.0,
-    "vp_tb": 2.0,
     "bounds": {"molar_mass": (1.0, 5000.0), "tc": (2.0, 2500.0), "pc": (1e5, 2e8), "vc": (1e-5, 1e-2),
                "zc": (0.05, 0.5), "omega": (-1.0, 2.5), "tb": (1.0, 2500.0), "tm": (0.5, 4000.0)},
 }
@@ -69,9 +79,17 @@ REFERENCE_TOLERANCE = {
 
 PRIOR_PENALTY = 0.5
 
+# Attribution candidates taken from the compound's own fitted curve: what the
+# suggestion says, and the check that compares the column with that curve.
+OWN_CURVE = {
+    "tb": ("off its own vapor-pressure curve? the curve reaches 101.325 kPa at", "tb from vapor-pressure points"),
+    "omega": ("off its own vapor-pressure curve? Pitzer's definition at 0.7 tc gives", "omega from vapor-pressure curve"),
+}
+_OWN_CURVE_WHAT = {what for what, _ in OWN_CURVE.values()}
+
 
 def _is_unit(what: str) -> bool:
-    return not (what.startswith("transposed") or "swapped" in what or "copied" in what)
+    return not (what.startswith("transposed") or "swapped" in what or "copied" in what or what in _OWN_CURVE_WHAT)
 
 
 SWAPS = {"tc": ("tb", "tm", "pc"), "tb": ("tc", "tm"), "tm": ("tb", "tc"), "pc": ("tc",), "zc": ("omega",), "omega": ("zc",)}
@@ -122,7 +140,8 @@ def evidence_z(ctx: Context, rows: np.ndarray, v: dict[str, np.ndarray]) -> dict
         tol = np.where(_polar(ctx, rows), e["lk_tb"] * e["lk_polar_factor"], e["lk_tb"])
         z["Lee-Kesler tb"] = np.abs(v["tb"] - lee_kesler_tb(v["tc"], v["pc"], v["omega"])) / tol
         z["vapor-pressure points below tc"] = np.where(np.isfinite(v["tc"]), np.where(v["tc"] < ctx.vp_tmax[rows], _HARD, 0.0), np.nan)
-        z["tb from vapor-pressure points"] = np.abs(v["tb"] - ctx.vp_tb[rows]) / e["vp_tb"]
+        z["tb from vapor-pressure points"] = np.abs(v["tb"] - ctx.vp_tb[rows]) / ctx.vp_tb_tol[rows]
+        z["omega from vapor-pressure curve"] = np.abs(v["omega"] - ctx.curve_omega(rows, v["tc"], v["pc"])) / ctx.curve_omega_tol
         m = v["molar_mass"]
         z["formula molar mass"] = np.abs(m - ctx.formula_mass[rows]) / (0.02 + 2e-4 * m)
         for c in TREND_COLUMNS:
@@ -172,6 +191,7 @@ def diagnose(ctx: Context, rows, columns, raw: dict[str, np.ndarray] | None = No
     base = {c: ctx.values[c].copy() for c in NUMERIC}
     for c, arr in (raw or {}).items():
         base[c] = np.where(np.isfinite(arr), arr, base[c])
+    own = {"tb": ctx.vp_tb[rows], "omega": ctx.curve_omega(rows, base["tc"][rows], base["pc"][rows])}
     cand_cell, cand_row, cand_what, cand_col, cand_val, cand_extra = [], [], [], [], [], []
     for k, (r, cols) in enumerate(zip(rows, columns)):  # loop over suspect cells (findings)
         cols = (cols,) if isinstance(cols, str) else tuple(cols)
@@ -192,6 +212,9 @@ def diagnose(ctx: Context, rows, columns, raw: dict[str, np.ndarray] | None = No
             if dup is not None and col in ctx.judged and ctx.judged[col][r]:
                 cand_cell.append(k); cand_row.append(r); cand_what.append(f"value copied from {dup}? family trend gives")
                 cand_col.append(col); cand_val.append(ctx.expected_value(col, r)); cand_extra.append({})
+            if len(cols) > 1 and col in OWN_CURVE and np.isfinite(own[col][k]) and not np.isclose(own[col][k], value):
+                cand_cell.append(k); cand_row.append(r); cand_what.append(OWN_CURVE[col][0])
+                cand_col.append(col); cand_val.append(float(own[col][k])); cand_extra.append({})
     cand_row_a = np.array(cand_row, dtype=int)
     v = {c: base[c][cand_row_a].copy() for c in NUMERIC}
     cand_col_a = np.array(cand_col, dtype=object)
@@ -220,8 +243,11 @@ def diagnose(ctx: Context, rows, columns, raw: dict[str, np.ndarray] | None = No
         if failing[best] >= failing[stored] or total[best] >= total[stored]:
             result.append(None)
             continue
-        rivals = [j for j in order[1:] if failing[j] == failing[best] and total[j] < 4 * total[best] + 0.1
-                  and not np.isclose(v[cand_col[j]][j], v[cand_col[best]][best])]
+        if cand_what[best] in _OWN_CURVE_WHAT:  # a slip landing on the curve's value says what went wrong: prefer it
+            best = next((j for j in order if failing[j] == failing[best] and cand_what[j] not in _OWN_CURVE_WHAT
+                         and _same_answer(z, cand_col, best, j)), best)
+        rivals = [j for j in order if j != best and failing[j] == failing[best] and total[j] < 4 * total[best] + 0.1
+                  and not np.isclose(v[cand_col[j]][j], v[cand_col[best]][best]) and not _same_answer(z, cand_col, best, j)]
         sure = failing[best] == 0 and not rivals
         before = {name: np.full(len(cand_row), arr[stored]) for name, arr in z.items()}
         result.append(Diagnosis(
@@ -229,6 +255,15 @@ def diagnose(ctx: Context, rows, columns, raw: dict[str, np.ndarray] | None = No
             confidence="likely" if sure else "possibly", evidence=_names_passing(z, before, best),
             others=cand_extra[best]))
     return result
+
+
+def _same_answer(z, cand_col, a: int, b: int) -> bool:
+    """Two repairs of one column that both agree with the compound's own curve for it."""
+    col = cand_col[a]
+    if col != cand_col[b] or col not in OWN_CURVE:
+        return False
+    check = z[OWN_CURVE[col][1]]
+    return bool(check[a] <= 1 and check[b] <= 1)
 
 
 def _copied_from(ctx: Context, column: str, row: int, value: float) -> str | None:

@@ -33,9 +33,10 @@ def _text(expr: str) -> str:
 
 
 def _parsed(expr: str, typed: bool, decimal: str) -> str:
+    """The cell as DOUBLE, NULL where it does not parse (DuckDB's cast ignores surrounding blanks)."""
     if typed:
         return f"CAST({expr} AS DOUBLE)"
-    text = _text(expr)
+    text = f"CAST({expr} AS VARCHAR)"
     if decimal == ",":
         # "1.013,25" -> "1013.25"; "101,3" -> "101.3"; "101.3" stays.
         text = f"CASE WHEN contains({text}, ',') THEN replace(replace({text}, '.', ''), ',', '.') ELSE {text} END"
@@ -43,9 +44,18 @@ def _parsed(expr: str, typed: bool, decimal: str) -> str:
 
 
 def _bad(expr: str, typed: bool, decimal: str) -> str:
+    """True for a cell that holds something but not a finite number; blank cells are missing, not bad."""
     parsed = _parsed(expr, typed, decimal)
-    present = f"{expr} IS NOT NULL" if typed else f"{_text(expr)} IS NOT NULL"
-    return f"({present} AND ({parsed} IS NULL OR isnan({parsed}) OR isinf({parsed})))"
+    if typed:
+        return f"({expr} IS NOT NULL AND NOT isfinite({parsed}))"
+    return f"({expr} IS NOT NULL AND coalesce(NOT isfinite({parsed}), trim(CAST({expr} AS VARCHAR)) <> ''))"
+
+
+def _value(expr: str, typed: bool, decimal: str, conv) -> str:
+    """The canonical number: the parsed cell in SI units, NULL unless finite."""
+    parsed = _parsed(expr, typed, decimal)
+    value = f"({parsed}) * {conv.scale!r} + {conv.offset!r}" if conv else parsed
+    return f"CASE WHEN isfinite({parsed}) THEN {value} END"
 
 
 def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping) -> None:
@@ -93,9 +103,7 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
         elif column.numeric:
             typed = types[src].upper().startswith(NUMERIC_TYPES)
             conv = _conversion(table_map.units, column.name)
-            parsed = _parsed(_q(src), typed, raw.csv_decimal)
-            value = f"({parsed}) * {conv.scale!r} + {conv.offset!r}" if conv else parsed
-            select.append(f"CASE WHEN {_bad(_q(src), typed, raw.csv_decimal)} THEN NULL ELSE {value} END AS {column.name}")
+            select.append(f"{_value(_q(src), typed, raw.csv_decimal, conv)} AS {column.name}")
         else:
             select.append(f"{_text(_q(src))} AS {column.name}")
     used = set(chosen.values())
@@ -147,9 +155,7 @@ def _report_bad_cells(db, spec, raw, chosen, types, info, table_map) -> None:
     t_expr = "NULL"
     if spec.name in ("vapor_pressure", "boiling_points"):  # findings on a point carry its temperature
         conv = _conversion(table_map.units, "t")
-        parsed = _parsed(_q(chosen["t"]), typed["t"], raw.csv_decimal)
-        value = f"({parsed}) * {conv.scale!r} + {conv.offset!r}" if conv else parsed
-        t_expr = f"CASE WHEN {bad['t']} THEN NULL ELSE {value} END"
+        t_expr = _value(_q(chosen["t"]), typed["t"], raw.csv_decimal, conv)
     texts = ", ".join(f"CAST({_q(chosen[c.name])} AS VARCHAR)" for c in numeric)
     flags = ", ".join(bad[c.name] for c in numeric)
     src_expr = _text(_q(chosen["source"])) if "source" in chosen else "NULL"

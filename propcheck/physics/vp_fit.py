@@ -33,6 +33,8 @@ References
 
 from __future__ import annotations
 
+import os
+from concurrent.futures import ThreadPoolExecutor
 from dataclasses import dataclass
 
 import numpy as np
@@ -58,6 +60,7 @@ ANTOINE_MIN_POINTS = 4
 ANCHOR_MISFIT_LIMIT = 3.0
 N_PARAMS = {"none": 0, "clausius-clapeyron": 2, "antoine": 3, "wagner": 4, "riedel": 4}
 T_REF = 500.0  # K; scales the T^6 term of the Riedel form
+MIN_POINTS_PER_THREAD = 100_000  # smaller data are fitted on one thread: not worth the hand-over
 GROSS_FACTOR = 1.5  # a neighbour pair whose p falls by more than this is left out of the start
 
 
@@ -315,14 +318,28 @@ def _fit_antoine(t, ln_p, group, n_groups, min_scale, w0, tuning=4.685, iteratio
     return beta, resid, w, scale
 
 
-def fit_in_blocks(group, t, p, n_groups, tc, pc, block_points: int = 1 << 20, **kwargs) -> VpFit:
-    """:func:`fit_vapor_pressure` over blocks of whole compounds, to bound memory.
+def _workers() -> int:
+    try:
+        return max(1, len(os.sched_getaffinity(0)))
+    except AttributeError:  # not on Linux
+        return max(1, os.cpu_count() or 1)
+
+
+def fit_in_blocks(group, t, p, n_groups, tc, pc, block_points: int = 1 << 20, workers: int | None = None,
+                  **kwargs) -> VpFit:
+    """:func:`fit_vapor_pressure` over blocks of whole compounds, to bound memory and use every core.
 
     ``group`` must be sorted (points of a compound together). Each block
-    holds about ``block_points`` points; results are concatenated, so the
-    outcome equals one call over all points.
+    holds at most about ``block_points`` points, and there are at least as
+    many blocks as ``workers`` (default: the cores this process may use)
+    when the data are large enough to be worth it; blocks are fitted on
+    that many threads (numpy releases the GIL in its array work). Results
+    are concatenated, so the outcome equals one call over all points.
     """
     group = np.asarray(group)
+    workers = _workers() if workers is None else max(1, workers)
+    if len(group) >= MIN_POINTS_PER_THREAD * 2 and workers > 1:
+        block_points = min(block_points, -(-len(group) // workers))
     if len(group) <= block_points:
         return fit_vapor_pressure(group, t, p, n_groups, tc, pc, **kwargs)
     starts = np.flatnonzero(np.concatenate(([True], group[1:] != group[:-1])))
@@ -332,11 +349,19 @@ def fit_in_blocks(group, t, p, n_groups, tc, pc, block_points: int = 1 << 20, **
         if cut > cuts[-1] and cut < len(group):
             cuts.append(int(cut))
     cuts.append(len(group))
-    parts = []
-    for lo, hi in zip(cuts[:-1], cuts[1:]):
+
+    def fit_block(lo_hi):
+        lo, hi = lo_hi
         g_lo, g_hi = int(group[lo]), int(group[hi - 1]) + 1
-        parts.append((g_lo, g_hi, fit_vapor_pressure(group[lo:hi] - g_lo, t[lo:hi], p[lo:hi], g_hi - g_lo,
-                                                     tc[g_lo:g_hi], pc[g_lo:g_hi], **kwargs)))
+        return g_lo, g_hi, fit_vapor_pressure(group[lo:hi] - g_lo, t[lo:hi], p[lo:hi], g_hi - g_lo,
+                                              tc[g_lo:g_hi], pc[g_lo:g_hi], **kwargs)
+
+    spans = list(zip(cuts[:-1], cuts[1:]))
+    if workers > 1 and len(spans) > 1:
+        with ThreadPoolExecutor(max_workers=min(workers, len(spans))) as pool:
+            parts = list(pool.map(fit_block, spans))
+    else:
+        parts = [fit_block(span) for span in spans]
     per_group = ("form", "coef", "n_points", "t_min", "t_max", "scale", "anchor_misfit", "alt_scale", "free_form",
                  "free_coef")
     per_point = ("residual", "weight", "alt_residual")

@@ -17,8 +17,11 @@ Method
     (Lee and Kesler 1975). On the IUPAC/CRC/reference-EOS constants of 23
     compounds the difference is within 1 K except water (2.7 K, computed).
     Attribution: each of tb, tc, pc and omega is tried with the usual slips
-    (unit, transposed digits, decimal point, a swap within the row); the
-    repair that makes the whole row consistent (family trend, Guldberg
+    (unit, transposed digits, decimal point, a swap within the row), and tb
+    and omega also at the values the compound's own fitted curve gives
+    (101.325 kPa; Pitzer's definition at 0.7 tc): a tb its own points
+    confirm is not blamed for an omega they contradict, nor the reverse.
+    The repair that makes the whole row consistent (family trend, Guldberg
     band, Zc, own vapor-pressure points) names the column; "likely" when it
     is the only one, else "possibly". Without a repair, the column furthest
     off its family's trend is named, else tb.

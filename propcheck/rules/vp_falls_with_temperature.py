@@ -51,6 +51,7 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
+from propcheck.curves import curve_points
 from propcheck.findings import Finding
 from propcheck.physics.unit_slips import pressure_slip
 from propcheck.rules.base import RuleInfo
@@ -70,12 +71,16 @@ RULE = RuleInfo(
     },
 )
 
+# The neighbours of a pair are fetched only for compounds that may have a pair at fault
+# (``$ids``): found by numpy on the sorted curve points, or by SQL for compounds with
+# points outside them (beyond tc, non-positive, unknown compound).
 _SQL = """
-WITH pts AS (
+WITH base AS (
     SELECT compound_id, _row, t, p, source,
-           coalesce(uncertainty, ? * p) AS u
+           coalesce(uncertainty, $rel_u * p) AS u
     FROM vapor_pressure
     WHERE compound_id IS NOT NULL AND t IS NOT NULL AND p IS NOT NULL
+      AND compound_id IN (SELECT unnest($ids))
 ), seq AS (
     SELECT *,
         lag(_row) OVER w AS row_a, lag(t) OVER w AS t_a, lag(p) OVER w AS p_a, lag(u) OVER w AS u_a,
@@ -84,19 +89,47 @@ WITH pts AS (
         lag(t, 3) OVER w AS t_l2, lag(p, 3) OVER w AS p_l2,
         lead(t) OVER w AS t_r, lead(p) OVER w AS p_r,
         lead(t, 2) OVER w AS t_r2, lead(p, 2) OVER w AS p_r2
-    FROM pts
+    FROM base
     WINDOW w AS (PARTITION BY compound_id ORDER BY t, _row)
 )
 SELECT compound_id, row_a, t_a, p_a, source_a, _row AS row_b, t AS t_b, p AS p_b, source AS source_b,
        t_l, p_l, t_l2, p_l2, t_r, p_r, t_r2, p_r2,
-       ? * sqrt(u * u + u_a * u_a) AS allowed,
-       t - t_a < ? AS same_t
+       $k * sqrt(u * u + u_a * u_a) AS allowed,
+       t - t_a < $tol_t AS same_t
 FROM seq
 WHERE row_a IS NOT NULL
-  AND ((t - t_a >= ? AND p_a - p > ? * sqrt(u * u + u_a * u_a))
-    OR (t - t_a < ? AND abs(p - p_a) > ? * greatest(p, p_a)))
+  AND ((t - t_a >= $tol_t AND p_a - p > $k * sqrt(u * u + u_a * u_a))
+    OR (t - t_a < $tol_t AND abs(p - p_a) > $spread * greatest(p, p_a)))
 ORDER BY compound_id, t_b
 """
+
+# Points per compound, to find compounds whose points are not all curve points.
+_COUNTS_SQL = """
+SELECT compound_id, count(*) AS n FROM vapor_pressure
+WHERE compound_id IS NOT NULL AND t IS NOT NULL AND p IS NOT NULL
+GROUP BY compound_id
+"""
+
+
+def _suspect_compounds(db, params) -> list[str]:
+    """Compounds that may hold a falling or disagreeing pair; the SQL above decides."""
+    pts = curve_points(db)
+    counts = db.con.execute(_COUNTS_SQL).fetchnumpy()
+    all_ids = np.asarray(counts["compound_id"], dtype=object)
+    if pts is None:
+        return all_ids.tolist()
+    in_curves = dict(zip(pts.ids, np.bincount(pts.group, minlength=len(pts.ids))))
+    partial = [cid for cid, n in zip(all_ids, counts["n"]) if in_curves.get(cid) != n]
+    g, t, p = pts.group, pts.t, pts.p
+    u = np.where(np.isnan(pts.u), params["default_relative_uncertainty"] * p, pts.u)
+    same = g[1:] == g[:-1]
+    dt = t[1:] - t[:-1]
+    tol_t = params["same_t_tolerance"]
+    with np.errstate(invalid="ignore"):
+        falls = (dt >= tol_t) & (p[:-1] - p[1:] > params["coverage_factor"] * np.sqrt(u[1:] ** 2 + u[:-1] ** 2))
+        repeat = (dt < tol_t) & (np.abs(p[1:] - p[:-1]) > params["same_t_relative_spread"] * np.maximum(p[1:], p[:-1]))
+    hit_groups = np.unique(g[1:][same & (falls | repeat)])
+    return sorted(set(partial) | set(pts.ids[hit_groups].tolist()))
 
 
 def _loglin(t1, p1, t2, p2, t):
@@ -110,11 +143,13 @@ def check(db, params) -> list[Finding]:
     if not db.has("vapor_pressure"):
         return []
     tol_t = params["same_t_tolerance"]
-    pairs = db.df(
-        _SQL,
-        [params["default_relative_uncertainty"], params["coverage_factor"], tol_t, tol_t,
-         params["coverage_factor"], tol_t, params["same_t_relative_spread"]],
-    )
+    suspects = _suspect_compounds(db, params)
+    if not suspects:
+        return []
+    pairs = db.con.execute(_SQL, {
+        "rel_u": params["default_relative_uncertainty"], "k": params["coverage_factor"], "tol_t": tol_t,
+        "spread": params["same_t_relative_spread"], "ids": suspects,
+    }).df()
     if pairs.empty:
         return []
     findings = _drops(pairs[~pairs["same_t"]]) + _same_t(pairs[pairs["same_t"]], params)

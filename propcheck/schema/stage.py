@@ -18,6 +18,7 @@ from propcheck.findings import Finding
 from propcheck.identifiers import cas_check_digit, cas_check_digit_ok, cas_format_ok
 from propcheck.rules.pack import Pack
 from propcheck.schema.models import BoilingPointsModel, CompoundsModel, VaporPressureModel, VpEquationsModel
+from propcheck.schema.prefilter import suspect_rows_sql
 
 __all__ = ["build_schema", "run_schema_stage"]
 
@@ -43,7 +44,8 @@ def build_schema(table: str, pack: Pack, known_ids: set[str] | None = None) -> p
     if pack.enabled("value-out-of-range"):
         for column, (low, high) in pack.params("value-out-of-range").get(table, {}).items():
             checks.setdefault(column, []).append(
-                pa.Check(lambda s, lo=low, hi=high: s.between(lo, hi), name=f"range:{column}")
+                pa.Check(lambda s, lo=low, hi=high: s.between(lo, hi), name=f"range:{column}",
+                         statistics={"low": low, "high": high})
             )
     if table == "compounds":
         if pack.enabled("cas-malformed"):
@@ -75,6 +77,18 @@ def _failures(schema: pa.DataFrameSchema, frame: pd.DataFrame) -> pd.DataFrame:
     return pd.DataFrame(columns=["column", "check", "failure_case", "index"])
 
 
+def _load_pandera_backend() -> None:
+    """Validate a one-cell frame once at import.
+
+    pandera imports its pandas backend (and its data-synthesis strategies)
+    on the first validation, a fixed start-up cost of a few tenths of a
+    second that belongs with the other imports, not with the first table.
+    """
+    pa.DataFrameSchema({"x": pa.Column(float)}).validate(pd.DataFrame({"x": [1.0]}))
+
+
+_load_pandera_backend()
+
 CHUNK_ROWS = 500_000  # vapor-pressure rows validated at a time, to bound memory
 
 
@@ -90,8 +104,10 @@ def run_schema_stage(db: Database, pack: Pack) -> list[Finding]:
         schema = build_schema(table, pack, known)
         reject, null_cells = set(), {}
         columns = ", ".join(["_row", *MODELS[table].to_schema().columns])
-        reader = db.con.sql(f"SELECT {columns} FROM {table}").to_arrow_reader(CHUNK_ROWS)
-        for batch in reader:
+        suspect = suspect_rows_sql(schema)
+        query = f"SELECT {columns} FROM {table}" + (f" WHERE {suspect}" if suspect else "")
+        batches = list_or_empty(db.con.sql(query).to_arrow_reader(CHUNK_ROWS), db, f"SELECT {columns} FROM {table} LIMIT 0")
+        for batch in batches:
             chunk = batch.to_pandas().set_index("_row", drop=False)
             found, chunk_reject, chunk_null = _check_frame(db, table, chunk, schema, pack)
             findings += found
@@ -100,6 +116,19 @@ def run_schema_stage(db: Database, pack: Pack) -> list[Finding]:
                 null_cells.setdefault(column, set()).update(rows)
         _apply(db, table, reject, null_cells)
     return findings
+
+
+def list_or_empty(reader, db: Database, empty_query: str):
+    """The batches of ``reader``; an empty table of the same columns if it has none.
+
+    pandera then still checks the column types of a table whose rows all pass.
+    """
+    seen = False
+    for batch in reader:
+        seen = True
+        yield batch
+    if not seen:
+        yield db.con.sql(empty_query).to_arrow_table()
 
 
 def _label(db: Database, table: str) -> str:
