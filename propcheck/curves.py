@@ -13,12 +13,15 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from propcheck.memory import release_freed_memory
+from propcheck.physics.grouped_fit import group_blocks, group_median
 from propcheck.physics.unit_slips import PRESSURE_SLIPS
 from propcheck.physics.vapor_pressure import lee_kesler_psat
 from propcheck.physics.vp_fit import FORM_TITLES, FORMS, VpFit, fit_in_blocks
 
 __all__ = ["CurvePoints", "Curves", "curve_points", "curves"]
 
+BLOCK_POINTS = 1 << 18  # points handled at once by the per-point arithmetic: small temporaries
 CS_TR_RANGE = (0.5, 1.0)  # Lee-Kesler is reliable here within a few percent (Poling et al. ch. 7)
 
 
@@ -94,6 +97,13 @@ WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc)
 ORDER BY c.g, v.t, v._row
 """
 
+_POINTS_COUNT_SQL = """
+SELECT count(*) FROM vapor_pressure v JOIN _curve_groups c USING (compound_id)
+WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc)
+"""
+POINT_DTYPES = {"g": np.int64, "t": np.float64, "p": np.float64, "u": np.float64, "row": np.int64}
+FETCH_ROWS = 1 << 20  # points per Arrow batch
+
 _COMPOUNDS_SQL = """
 SELECT c.compound_id, c._row AS row, coalesce(c.source, '') AS source,
        coalesce(c.tc, 'NaN'::DOUBLE) AS tc, coalesce(c.pc, 'NaN'::DOUBLE) AS pc,
@@ -124,10 +134,29 @@ def curve_points(db) -> CurvePoints | None:
     return db.cache["curve_points"]
 
 
+def _stream_into_arrays(con, sql: str, dtypes: dict[str, type], n: int) -> dict[str, np.ndarray]:
+    """The ``n`` rows of ``sql`` as numpy arrays, filled batch by batch.
+
+    Arrow batches are copied straight into preallocated arrays, so at no
+    moment does a second full copy of the result exist in Python.
+    """
+    out = {name: np.empty(n, dtype=dtype) for name, dtype in dtypes.items()}
+    at = 0
+    for batch in con.sql(sql).to_arrow_reader(FETCH_ROWS):
+        rows = batch.num_rows
+        for name in dtypes:
+            out[name][at:at + rows] = batch.column(name).to_numpy(zero_copy_only=False)
+        at += rows
+    if at != n:
+        raise RuntimeError(f"expected {n} curve points, read {at}")
+    return out
+
+
 def _fetch_points(db) -> CurvePoints | None:
     db.con.execute(_GROUPS_SQL)
     try:
-        pts = db.con.execute(_POINTS_SQL).fetchnumpy()
+        n = db.con.execute(_POINTS_COUNT_SQL).fetchall()[0][0]
+        pts = _stream_into_arrays(db.con, _POINTS_SQL, POINT_DTYPES, n)
         comp = db.con.execute(_COMPOUNDS_SQL).fetchnumpy()
     finally:
         db.con.execute("DROP TABLE _curve_groups")
@@ -157,6 +186,7 @@ def _compute(db) -> Curves | None:
     group, t, p, tc, pc = pts.group, pts.t, pts.p, comp["tc"], comp["pc"]
     n_groups = len(pts.ids)
     fit = fit_in_blocks(group, t, p, n_groups, tc, pc)
+    release_freed_memory()  # the fitting threads' arenas would otherwise stay resident
     omega = comp["omega"]
     log_ratio, n_cs = _cs_log_ratio(group, t, p, n_groups, tc, pc, omega)
     factor, slip = _series_slip(log_ratio)
@@ -168,15 +198,20 @@ def _compute(db) -> Curves | None:
 
 
 def _cs_log_ratio(group, t, p, n_groups, tc, pc, omega):
-    from propcheck.physics.grouped_fit import group_median
-
-    tr = t / tc[group]
-    use = np.isfinite(tr) & (tr >= CS_TR_RANGE[0]) & (tr < CS_TR_RANGE[1]) & np.isfinite(omega[group]) & np.isfinite(pc[group])
-    with np.errstate(all="ignore"):
-        ratio = np.log(p / lee_kesler_psat(t, tc[group], pc[group], omega[group]))
-    ratio = np.where(use, ratio, np.nan)
-    n_cs = np.bincount(group, use, minlength=n_groups).astype(np.int64)
-    med = group_median(ratio, group, n_groups)  # NaN (unusable) points are left out
+    """Median ln(p / p_Lee-Kesler) per compound, over points with Tr in CS_TR_RANGE, block by block."""
+    med = np.full(n_groups, np.nan)
+    n_cs = np.zeros(n_groups, dtype=np.int64)
+    for lo, hi in group_blocks(group, BLOCK_POINTS):
+        g = group[lo:hi]
+        g_lo, g_hi = int(g[0]), int(g[-1]) + 1
+        gl = g - g_lo
+        tcg, pcg, omg = tc[g_lo:g_hi][gl], pc[g_lo:g_hi][gl], omega[g_lo:g_hi][gl]
+        with np.errstate(all="ignore"):
+            tr = t[lo:hi] / tcg
+            use = (tr >= CS_TR_RANGE[0]) & (tr < CS_TR_RANGE[1]) & np.isfinite(omg) & np.isfinite(pcg)
+            ratio = np.where(use, np.log(p[lo:hi] / lee_kesler_psat(t[lo:hi], tcg, pcg, omg)), np.nan)
+        n_cs[g_lo:g_hi] = np.bincount(gl, use, minlength=g_hi - g_lo).astype(np.int64)
+        med[g_lo:g_hi] = group_median(ratio, gl, g_hi - g_lo)  # NaN (unusable) points are left out
     return np.where(n_cs > 0, med, np.nan), n_cs
 
 

@@ -14,10 +14,38 @@ from dataclasses import dataclass
 
 import numpy as np
 
-__all__ = ["GroupFit", "group_median", "grouped_lstsq", "robust_grouped_fit"]
+__all__ = ["GroupFit", "GroupLayout", "group_blocks", "group_median", "grouped_lstsq", "robust_grouped_fit"]
 
 BLOCK_ROWS = 1 << 20  # rows whose cross products are formed at once
 MAD_TO_SIGMA = 1.482602218505602  # 1/Phi^-1(3/4): MAD of a normal sample -> sigma (common practice)
+
+
+def group_blocks(group: np.ndarray, max_rows: int = BLOCK_ROWS) -> list[tuple[int, int]]:
+    """Row spans ``[lo, hi)`` of about ``max_rows`` rows that never split a group.
+
+    ``group`` must be sorted. Work done span by span keeps every temporary
+    array small, however many rows there are.
+
+    Examples
+    --------
+    >>> group_blocks(np.array([0, 0, 1, 1, 1, 2]), 3)
+    [(0, 2), (2, 5), (5, 6)]
+    """
+    n = len(group)
+    if n <= max_rows:
+        return [(0, n)] if n else []
+    starts = np.flatnonzero(np.concatenate(([True], group[1:] != group[:-1])))
+    cuts = [0]
+    while cuts[-1] < n:
+        target = cuts[-1] + max_rows
+        if target >= n:
+            cuts.append(n)
+            break
+        # the last group start at or before the target, unless that is the current cut
+        i = np.searchsorted(starts, target, side="right") - 1
+        cut = int(starts[i]) if starts[i] > cuts[-1] else int(starts[min(i + 1, len(starts) - 1)])
+        cuts.append(cut if cut > cuts[-1] else n)
+    return list(zip(cuts[:-1], cuts[1:]))
 
 
 def group_median(values: np.ndarray, group: np.ndarray, n_groups: int) -> np.ndarray:

@@ -39,7 +39,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from propcheck.physics.grouped_fit import MAD_TO_SIGMA, group_median, grouped_lstsq, robust_grouped_fit
+from propcheck.physics.grouped_fit import MAD_TO_SIGMA, group_blocks, group_median, grouped_lstsq, robust_grouped_fit
 
 __all__ = ["FORMS", "VpFit", "fit_in_blocks", "fit_vapor_pressure"]
 
@@ -325,7 +325,7 @@ def _workers() -> int:
         return max(1, os.cpu_count() or 1)
 
 
-def fit_in_blocks(group, t, p, n_groups, tc, pc, block_points: int = 1 << 20, workers: int | None = None,
+def fit_in_blocks(group, t, p, n_groups, tc, pc, block_points: int = 1 << 18, workers: int | None = None,
                   **kwargs) -> VpFit:
     """:func:`fit_vapor_pressure` over blocks of whole compounds, to bound memory and use every core.
 
@@ -342,13 +342,6 @@ def fit_in_blocks(group, t, p, n_groups, tc, pc, block_points: int = 1 << 20, wo
         block_points = min(block_points, -(-len(group) // workers))
     if len(group) <= block_points:
         return fit_vapor_pressure(group, t, p, n_groups, tc, pc, **kwargs)
-    starts = np.flatnonzero(np.concatenate(([True], group[1:] != group[:-1])))
-    cuts = [0]
-    for target in range(block_points, len(group), block_points):
-        cut = starts[np.searchsorted(starts, target)] if target <= starts[-1] else len(group)
-        if cut > cuts[-1] and cut < len(group):
-            cuts.append(int(cut))
-    cuts.append(len(group))
 
     def fit_block(lo_hi):
         lo, hi = lo_hi
@@ -356,7 +349,7 @@ def fit_in_blocks(group, t, p, n_groups, tc, pc, block_points: int = 1 << 20, wo
         return g_lo, g_hi, fit_vapor_pressure(group[lo:hi] - g_lo, t[lo:hi], p[lo:hi], g_hi - g_lo,
                                               tc[g_lo:g_hi], pc[g_lo:g_hi], **kwargs)
 
-    spans = list(zip(cuts[:-1], cuts[1:]))
+    spans = group_blocks(group, block_points)
     if workers > 1 and len(spans) > 1:
         with ThreadPoolExecutor(max_workers=min(workers, len(spans))) as pool:
             parts = list(pool.map(fit_block, spans))

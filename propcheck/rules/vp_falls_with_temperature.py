@@ -51,8 +51,9 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from propcheck.curves import curve_points
+from propcheck.curves import BLOCK_POINTS, curve_points
 from propcheck.findings import Finding
+from propcheck.physics.grouped_fit import group_blocks
 from propcheck.physics.unit_slips import pressure_slip
 from propcheck.rules.base import RuleInfo
 
@@ -118,18 +119,20 @@ def _suspect_compounds(db, params) -> list[str]:
     all_ids = np.asarray(counts["compound_id"], dtype=object)
     if pts is None:
         return all_ids.tolist()
-    in_curves = dict(zip(pts.ids, np.bincount(pts.group, minlength=len(pts.ids))))
-    partial = [cid for cid, n in zip(all_ids, counts["n"]) if in_curves.get(cid) != n]
-    g, t, p = pts.group, pts.t, pts.p
-    u = np.where(np.isnan(pts.u), params["default_relative_uncertainty"] * p, pts.u)
-    same = g[1:] == g[:-1]
-    dt = t[1:] - t[:-1]
-    tol_t = params["same_t_tolerance"]
-    with np.errstate(invalid="ignore"):
-        falls = (dt >= tol_t) & (p[:-1] - p[1:] > params["coverage_factor"] * np.sqrt(u[1:] ** 2 + u[:-1] ** 2))
-        repeat = (dt < tol_t) & (np.abs(p[1:] - p[:-1]) > params["same_t_relative_spread"] * np.maximum(p[1:], p[:-1]))
-    hit_groups = np.unique(g[1:][same & (falls | repeat)])
-    return sorted(set(partial) | set(pts.ids[hit_groups].tolist()))
+    n_curve = np.bincount(pts.group, minlength=len(pts.ids))
+    counted = pd.Series(np.asarray(counts["n"]), index=all_ids)
+    partial = counted.index[counted.to_numpy() != pd.Series(n_curve, index=pts.ids).reindex(all_ids).to_numpy()]
+    tol_t, k, spread = params["same_t_tolerance"], params["coverage_factor"], params["same_t_relative_spread"]
+    hit = np.zeros(len(pts.ids), dtype=bool)
+    for lo, hi in group_blocks(pts.group, BLOCK_POINTS):  # small temporaries, whatever the number of points
+        g, t, p = pts.group[lo:hi], pts.t[lo:hi], pts.p[lo:hi]
+        u = np.where(np.isnan(pts.u[lo:hi]), params["default_relative_uncertainty"] * p, pts.u[lo:hi])
+        dt = t[1:] - t[:-1]
+        with np.errstate(invalid="ignore"):
+            falls = (dt >= tol_t) & (p[:-1] - p[1:] > k * np.sqrt(u[1:] ** 2 + u[:-1] ** 2))
+            repeat = (dt < tol_t) & (np.abs(p[1:] - p[:-1]) > spread * np.maximum(p[1:], p[:-1]))
+        hit[g[1:][(g[1:] == g[:-1]) & (falls | repeat)]] = True
+    return sorted(set(partial.tolist()) | set(pts.ids[hit].tolist()))
 
 
 def _loglin(t1, p1, t2, p2, t):

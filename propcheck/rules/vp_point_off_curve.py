@@ -65,7 +65,8 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from propcheck.curves import curves
+from propcheck.curves import BLOCK_POINTS, curves
+from propcheck.physics.grouped_fit import group_blocks
 from propcheck.physics.unit_slips import pressure_slip, temperature_slip
 from propcheck.physics.vp_fit import N_PARAMS, FORMS
 from propcheck.rules.base import RuleInfo
@@ -95,20 +96,27 @@ def check(db, params):
         return None
     fit = cv.fit
     n_coef = np.array([N_PARAMS[f] for f in FORMS])[fit.form]
-    judged = (fit.n_points - n_coef >= params["min_dof"])[cv.group]
-    resid = fit.residual
-    with np.errstate(invalid="ignore"):
-        u_rel = cv.u / cv.p
-    floor = np.where(cv.p >= params["low_p_limit"], params["min_residual"], params["min_residual_low_p"])
-    threshold = np.maximum(np.fmax(params["coverage"] * u_rel, floor), params["k"] * fit.scale[cv.group])
-    hit = judged & np.isfinite(resid) & (np.abs(resid) > threshold) & ~np.isfinite(cv.series_factor)[cv.group]
-    # where Wagner (anchored on tc, pc) is used, a blunder must be off the free Antoine fit too;
-    # otherwise the anchor, not the point, is at fault (vp-curve-misses-critical-point)
-    alt_threshold = np.maximum(floor, params["k"] * fit.alt_scale[cv.group])
-    hit &= ~np.isfinite(fit.alt_residual) | (np.abs(fit.alt_residual) > alt_threshold)
-    if not hit.any():
+    judged_group = (fit.n_points - n_coef >= params["min_dof"]) & ~np.isfinite(cv.series_factor)
+    found, limits = [], []
+    for lo, hi in group_blocks(cv.group, BLOCK_POINTS):  # small temporaries, whatever the number of points
+        group, resid, p = cv.group[lo:hi], fit.residual[lo:hi], cv.p[lo:hi]
+        with np.errstate(invalid="ignore"):
+            u_rel = cv.u[lo:hi] / p
+        floor = np.where(p >= params["low_p_limit"], params["min_residual"], params["min_residual_low_p"])
+        threshold = np.maximum(np.fmax(params["coverage"] * u_rel, floor), params["k"] * fit.scale[group])
+        hit = judged_group[group] & np.isfinite(resid) & (np.abs(resid) > threshold)
+        # where Wagner (anchored on tc, pc) is used, a blunder must be off the free Antoine fit too;
+        # otherwise the anchor, not the point, is at fault (vp-curve-misses-critical-point)
+        alt = fit.alt_residual[lo:hi]
+        alt_threshold = np.maximum(floor, params["k"] * fit.alt_scale[group])
+        hit &= ~np.isfinite(alt) | (np.abs(alt) > alt_threshold)
+        found.append(lo + np.nonzero(hit)[0])
+        limits.append(threshold[hit])
+    idx = np.concatenate(found) if found else np.array([], dtype=np.int64)
+    if len(idx) == 0:
         return None
-    idx = np.nonzero(hit)[0]
+    threshold_at = np.concatenate(limits)
+    resid = fit.residual
     g = cv.group[idx]
     expected = np.exp(fit.ln_p(cv.t[idx], g))
     p_text, p_fixed = pressure_slip(cv.p[idx], expected)
@@ -129,7 +137,7 @@ def check(db, params):
     return pd.DataFrame({
         "rule": RULE.id, "severity": severity, "table": "vapor_pressure", "compound_id": cv.ids[g],
         "column": "p", "t": cv.t[idx], "observed": cv.p[idx], "expected": expected,
-        "tolerance": np.expm1(threshold[idx]), "suggestion": [s or None for s in suggestion],
+        "tolerance": np.expm1(threshold_at), "suggestion": [s or None for s in suggestion],
         "reference": [cv.describe(gi) for gi in g], "message": messages, "row": cv.row[idx],
         "source": cv.point_sources(cv.row[idx]),
     })

@@ -57,7 +57,8 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from propcheck.curves import curves
+from propcheck.curves import BLOCK_POINTS, curves
+from propcheck.physics.grouped_fit import group_blocks
 from propcheck.rules.base import RuleInfo
 
 RULE = RuleInfo(
@@ -96,24 +97,21 @@ def _too_many_runs(g, resid, n_groups, params):
     return np.isfinite(z) & (z > params["runs_z"]), z
 
 
-def check(db, params):
-    cv = curves(db)
-    if cv is None:
-        return None
-    keep = cv.fit.weight > 0
-    g, t, lnp = cv.group[keep], cv.t[keep], np.log(cv.p[keep])
-    with np.errstate(invalid="ignore"):
-        u_rel = np.fmax(cv.u[keep] / cv.p[keep], 0.0)
+def _scan(g, t, lnp, u_rel, resid, scale, n_groups, params):
+    """Judge the kept points of compounds 0..n_groups-1 (sorted by compound, t).
+
+    Returns per compound: flagged, alternating, runs z, points kept; and for
+    each flagged compound the temperature of its first break and its slopes.
+    """
     # scatter of ln p at each point: the larger of the fit's robust scale and the stated uncertainty
-    sigma_pt = np.fmax(np.maximum(cv.fit.scale[g], 1e-3), u_rel)
-    n_kept = np.bincount(g, minlength=len(cv.ids))
+    sigma_pt = np.fmax(np.maximum(scale[g], 1e-3), u_rel)
+    n_kept = np.bincount(g, minlength=n_groups)
     # segments between neighbours of the same compound
     same = g[1:] == g[:-1]
     dx = 1.0 / t[1:] - 1.0 / t[:-1]
     dy = lnp[1:] - lnp[:-1]
     with np.errstate(all="ignore"):
         psi = np.where(same, -dy / dx, np.nan)
-    with np.errstate(all="ignore"):
         rel_noise = np.hypot(sigma_pt[1:], sigma_pt[:-1]) / np.abs(dy)  # relative scatter of each psi
     # changes between adjacent segments of the same compound
     seg_same = same[1:] & same[:-1]
@@ -128,28 +126,47 @@ def check(db, params):
     cont = c[1:] == c[:-1]
     rise_then_fall = cont & (s[:-1] > 0) & (s[1:] < 0)
     fall_then_rise = cont & (s[:-1] < 0) & (s[1:] > 0)
-    minima = np.bincount(c[1:][fall_then_rise], minlength=len(cv.ids))
-    flagged = np.zeros(len(cv.ids), dtype=bool)
+    minima = np.bincount(c[1:][fall_then_rise], minlength=n_groups)
+    flagged = np.zeros(n_groups, dtype=bool)
     flagged[c[1:][rise_then_fall]] = True
     flagged |= minima >= 2
-    alternating, runs_z = _too_many_runs(g, cv.fit.residual[keep], len(cv.ids), params)
-    alternating &= cv.fit.scale > params["min_scatter"]
+    alternating, runs_z = _too_many_runs(g, resid, n_groups, params)
+    alternating &= scale > params["min_scatter"]
     flagged = (flagged | alternating) & (n_kept >= params["min_points"])
-    rows = []
+    details = {}
     for gi in np.nonzero(flagged)[0]:
         breaks = tt[1:][(c[1:] == gi) & (rise_then_fall | fall_then_rise)]
         where = float(breaks[0]) if len(breaks) else float(t[g == gi][1])
-        series = psi[(g[1:] == gi) & same]
-        rows.append({
-            "rule": RULE.id, "severity": RULE.severity, "table": "vapor_pressure", "compound_id": cv.ids[gi],
-            "column": "p", "t": where, "observed": None, "expected": None,
-            "tolerance": params["min_relative_change"],
-            "suggestion": "mixed sources or a block of points on another temperature scale?",
-            "reference": "Waring 1954: one minimum of -d ln p/d(1/T) below tc",
-            "message": (f"the slope -d ln p/d(1/T) of the {int(n_kept[gi])} points changes direction irregularly "
-                        f"from {where:.5g} K (slopes {', '.join(f'{v:.4g}' for v in series[:8])} K): "
-                        f"a real curve has one minimum"
-                        + (f"; residuals alternate in sign (runs test z = {runs_z[gi]:.1f})" if alternating[gi] else "")),
-            "source": cv.c_source[gi],
-        })
+        details[int(gi)] = (where, psi[(g[1:] == gi) & same])
+    return flagged, alternating, runs_z, n_kept, details
+
+
+def check(db, params):
+    cv = curves(db)
+    if cv is None:
+        return None
+    rows = []
+    # compound by compound in blocks of points, so the temporaries stay small
+    for lo, hi in group_blocks(cv.group, BLOCK_POINTS):
+        g_lo, g_hi = int(cv.group[lo]), int(cv.group[hi - 1]) + 1
+        keep = cv.fit.weight[lo:hi] > 0
+        g = cv.group[lo:hi][keep] - g_lo
+        t, p = cv.t[lo:hi][keep], cv.p[lo:hi][keep]
+        with np.errstate(invalid="ignore"):
+            u_rel = np.fmax(cv.u[lo:hi][keep] / p, 0.0)
+        flagged, alternating, runs_z, n_kept, details = _scan(
+            g, t, np.log(p), u_rel, cv.fit.residual[lo:hi][keep], cv.fit.scale[g_lo:g_hi], g_hi - g_lo, params)
+        for gi, (where, series) in details.items():
+            rows.append({
+                "rule": RULE.id, "severity": RULE.severity, "table": "vapor_pressure",
+                "compound_id": cv.ids[g_lo + gi], "column": "p", "t": where, "observed": None, "expected": None,
+                "tolerance": params["min_relative_change"],
+                "suggestion": "mixed sources or a block of points on another temperature scale?",
+                "reference": "Waring 1954: one minimum of -d ln p/d(1/T) below tc",
+                "message": (f"the slope -d ln p/d(1/T) of the {int(n_kept[gi])} points changes direction irregularly "
+                            f"from {where:.5g} K (slopes {', '.join(f'{v:.4g}' for v in series[:8])} K): "
+                            f"a real curve has one minimum"
+                            + (f"; residuals alternate in sign (runs test z = {runs_z[gi]:.1f})" if alternating[gi] else "")),
+                "source": cv.c_source[g_lo + gi],
+            })
     return pd.DataFrame(rows) if rows else None
