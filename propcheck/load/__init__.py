@@ -49,7 +49,7 @@ def load_database(source: str, mapping_path: str | None = None) -> Database:
         canonicalize(db, spec, raw, mapping)
         _release(con, raw)
     if sum(info.rows_read for info in db.tables.values()) >= COMPRESS_ROWS:
-        con.execute("CHECKPOINT work")
+        con.execute("CHECKPOINT work")  # compress what the batches left uncompressed
     used = {mapping.table(name).source_table.lower() for name in db.tables}
     for name in sorted(set(raw_tables) - used):
         db.notes.append(f"table {name!r} ({raw_tables[name].origin}) is not a canonical table; not loaded")

@@ -64,10 +64,11 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
     table_map = mapping.table(spec.name)
     raw_name = f"raw_{spec.name}"
     try:
-        # files are read through a view (no copy: read once for the table, once for bad cells);
+        # files are read through a view (no copy: read once, for the table);
         # a driver's Arrow stream can be read only once, so it is copied
+        # (not TEMP: the table is filled through a second cursor, which sees only the catalog)
         raw_kind = "VIEW" if raw.keep is None else "TABLE"
-        con.execute(f"CREATE TEMP {raw_kind} {raw_name} AS SELECT row_number() OVER () AS _row, * FROM {raw.relation}")
+        con.execute(f"CREATE {raw_kind} {raw_name} AS SELECT row_number() OVER () AS _row, * FROM {raw.relation}")
         described = con.execute(f"DESCRIBE {raw_name}").fetchall()
     except duckdb.Error as exc:
         reason = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
@@ -104,6 +105,9 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
             typed = types[src].upper().startswith(NUMERIC_TYPES)
             conv = _conversion(table_map.units, column.name)
             select.append(f"{_value(_q(src), typed, raw.csv_decimal, conv)} AS {column.name}")
+            # the text of a cell that is not a number, kept until it is reported (NULL almost everywhere)
+            select.append(f"CASE WHEN {_bad(_q(src), typed, raw.csv_decimal)} THEN CAST({_q(src)} AS VARCHAR) END "
+                          f"AS {_bad_mark(column.name)}")
         else:
             select.append(f"{_text(_q(src))} AS {column.name}")
     used = set(chosen.values())
@@ -113,16 +117,56 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
             select.append(_q(src))
             info.extra_columns.append(src)
     try:
-        con.execute(f"CREATE TABLE {spec.name} AS SELECT {', '.join(select)} FROM {raw_name}")
+        _fill(con, spec.name, f"SELECT {', '.join(select)} FROM {_catalog(con)}.{raw_name}", _large(raw.origin))
     except duckdb.Error as exc:
         reason = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
         raise UsageError(f"cannot read ({reason})", file=raw.origin, table=spec.name) from None
     info.rows_read = con.execute(f"SELECT count(*) FROM {spec.name}").fetchone()[0]
     if info.rows_read == 0 and spec.required:
         raise UsageError("table has no rows", file=raw.origin, table=spec.name)
-    _report_bad_cells(db, spec, raw, chosen, types, info, table_map)
+    _report_bad_cells(db, spec, raw, chosen, info)
     con.execute(f"DROP {raw_kind} {raw_name}")
     db.tables[spec.name] = info
+
+
+BATCH_ROWS = 1 << 20  # rows moved at a time from the source into the working table
+COMPRESS_EVERY = 2_000_000  # rows appended between two compressions of the working tables
+LARGE_FILE_BYTES = 100 * 2**20  # files from this size are loaded batch by batch (about 1.5M CSV rows)
+
+
+def _catalog(con) -> str:
+    return con.execute("SELECT current_database()").fetchall()[0][0]
+
+
+def _large(origin: str) -> bool:
+    """A source file big enough to be worth filling batch by batch."""
+    try:
+        return Path(origin).is_file() and Path(origin).stat().st_size >= LARGE_FILE_BYTES
+    except OSError:
+        return False
+
+
+def _fill(con, table: str, select: str, batches: bool) -> None:
+    """Create ``table`` from ``select``, in one statement or batch by batch.
+
+    Batch by batch, the table is compressed (``CHECKPOINT``) every
+    ``COMPRESS_EVERY`` rows, so a large table never sits in memory
+    uncompressed as a whole; the source is still read once, in order.
+    """
+    if not batches:
+        con.execute(f"CREATE TABLE {table} AS {select}")
+        return
+    con.execute(f"CREATE TABLE {table} AS {select} LIMIT 0")
+    reader = con.cursor().sql(select).to_arrow_reader(BATCH_ROWS)
+    pending = 0
+    for batch in reader:
+        con.register("_propcheck_batch", batch)
+        con.execute(f"INSERT INTO {table} SELECT * FROM _propcheck_batch")
+        con.unregister("_propcheck_batch")
+        pending += batch.num_rows
+        if pending >= COMPRESS_EVERY:
+            con.execute(f"CHECKPOINT {_catalog(con)}")
+            pending = 0
 
 
 def _conversion(units: dict[str, Conversion], column: str) -> Conversion | None:
@@ -143,26 +187,30 @@ def _unit_hint(text: str) -> str | None:
     return f"a number with a unit ({tail.strip()!r}): store the number alone and declare the unit in the mapping file" if tail.strip() else None
 
 
-def _report_bad_cells(db, spec, raw, chosen, types, info, table_map) -> None:
-    """One pass over the source: every numeric cell that does not parse becomes a finding."""
-    raw_name = f"raw_{spec.name}"
+def _bad_mark(column: str) -> str:
+    return _q(f"_propcheck_not_a_number_{column}")
+
+
+def _report_bad_cells(db, spec, raw, chosen, info) -> None:
+    """Every numeric cell that did not parse becomes a finding; its marks leave the table.
+
+    The canonical table was created with, per numeric column, the text of
+    each cell that is not a number (NULL elsewhere), so the source is read
+    only once.
+    """
     label = Path(raw.origin).name if db.kind == "folder" else raw.origin
     numeric = [c for c in spec.columns if c.numeric and c.name in chosen]
     if not numeric:
         return
-    typed = {c.name: types[chosen[c.name]].upper().startswith(NUMERIC_TYPES) for c in numeric}
-    bad = {c.name: _bad(_q(chosen[c.name]), typed[c.name], raw.csv_decimal) for c in numeric}
-    t_expr = "NULL"
-    if spec.name in ("vapor_pressure", "boiling_points"):  # findings on a point carry its temperature
-        conv = _conversion(table_map.units, "t")
-        t_expr = _value(_q(chosen["t"]), typed["t"], raw.csv_decimal, conv)
-    texts = ", ".join(f"CAST({_q(chosen[c.name])} AS VARCHAR)" for c in numeric)
-    flags = ", ".join(bad[c.name] for c in numeric)
-    src_expr = _text(_q(chosen["source"])) if "source" in chosen else "NULL"
+    marks = [_bad_mark(c.name) for c in numeric]
+    # findings on a point carry its temperature
+    t_expr = "t" if spec.name in ("vapor_pressure", "boiling_points") else "NULL"
     rows = db.con.execute(
-        f"SELECT _row, {_text(_q(chosen['compound_id']))}, {src_expr}, {t_expr}, {texts}, {flags} "
-        f"FROM {raw_name} WHERE {' OR '.join(bad.values())} ORDER BY _row"
+        f"SELECT _row, compound_id, source, {t_expr}, {', '.join(marks)}, {', '.join(m + ' IS NOT NULL' for m in marks)} "
+        f"FROM {spec.name} WHERE {' OR '.join(m + ' IS NOT NULL' for m in marks)} ORDER BY _row"
     ).fetchall()
+    for mark in marks:
+        db.con.execute(f"ALTER TABLE {spec.name} DROP COLUMN {mark}")
     k = len(numeric)
     for record in rows:
         row, compound_id, source, t = record[:4]

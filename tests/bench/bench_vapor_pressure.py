@@ -127,16 +127,26 @@ def _run(code: str, *args: str) -> tuple[list[float], float]:
     return [float(x) for x in out.split()], usage.ru_maxrss / 1024.0
 
 
-def _shuffle(src: Path, dst: Path, fmt: str) -> None:
-    import duckdb
+SHUFFLE = """
+import sys, duckdb
+src, dst, fmt = sys.argv[1], sys.argv[2], sys.argv[3]
+con = duckdb.connect()
+con.execute("SELECT setseed(0.42)")
+reader = "read_parquet" if fmt == "parquet" else "read_csv"
+option = "(FORMAT parquet)" if fmt == "parquet" else "(HEADER, DELIMITER ',')"
+con.execute(f"COPY (SELECT * FROM {reader}('{src}/vapor_pressure.{fmt}') ORDER BY random()) TO '{dst}/vapor_pressure.{fmt}' {option}")
+con.execute(f"COPY (SELECT * FROM {reader}('{src}/compounds.{fmt}')) TO '{dst}/compounds.{fmt}' {option}")
+"""
 
+
+def _shuffle(src: Path, dst: Path, fmt: str) -> None:
+    """Write the rows of ``src`` in random order to ``dst``.
+
+    In a child process: a forked child starts with its parent's resident
+    memory counted in its own peak, so the parent must stay small.
+    """
     dst.mkdir(parents=True, exist_ok=True)
-    con = duckdb.connect()
-    con.execute("SELECT setseed(0.42)")
-    reader = "read_parquet" if fmt == "parquet" else "read_csv"
-    option = "(FORMAT parquet)" if fmt == "parquet" else "(HEADER, DELIMITER ',')"
-    con.execute(f"COPY (SELECT * FROM {reader}('{src}/vapor_pressure.{fmt}') ORDER BY random()) TO '{dst}/vapor_pressure.{fmt}' {option}")
-    con.execute(f"COPY (SELECT * FROM {reader}('{src}/compounds.{fmt}')) TO '{dst}/compounds.{fmt}' {option}")
+    subprocess.run([sys.executable, "-c", SHUFFLE, str(src), str(dst), fmt], check=True)
 
 
 def main(argv=None) -> int:
