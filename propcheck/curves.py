@@ -90,18 +90,23 @@ WHERE compound_id IN (SELECT v.compound_id FROM vapor_pressure v JOIN compounds 
                       WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc))
 """
 
-_POINTS_SQL = """
-SELECT c.g, v.t, v.p, coalesce(v.uncertainty, 'NaN'::DOUBLE) AS u, v._row AS row
+# The order of the points is found by sorting their keys alone; their values are then read
+# column by column in table order and put in that order: neither DuckDB nor Python ever
+# holds a second full copy of all the values.
+_ORDER_SQL = """
+SELECT c.g::INTEGER AS g, v._row::INTEGER AS row
 FROM vapor_pressure v JOIN _curve_groups c USING (compound_id)
 WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc)
 ORDER BY c.g, v.t, v._row
 """
 
-_POINTS_COUNT_SQL = """
+_ORDER_COUNT_SQL = """
 SELECT count(*) FROM vapor_pressure v JOIN _curve_groups c USING (compound_id)
 WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc)
 """
-POINT_DTYPES = {"g": np.int64, "t": np.float64, "p": np.float64, "u": np.float64, "row": np.int64}
+# 32-bit group and row numbers (2**31 rows is far beyond any table)
+ORDER_DTYPES = {"g": np.int32, "row": np.int32}
+VALUE_COLUMNS = {"t": "t", "p": "p", "u": "coalesce(uncertainty, 'NaN'::DOUBLE)"}
 FETCH_ROWS = 1 << 20  # points per Arrow batch
 
 _COMPOUNDS_SQL = """
@@ -148,24 +153,42 @@ def _stream_into_arrays(con, sql: str, dtypes: dict[str, type], n: int) -> dict[
             out[name][at:at + rows] = batch.column(name).to_numpy(zero_copy_only=False)
         at += rows
     if at != n:
-        raise RuntimeError(f"expected {n} curve points, read {at}")
+        raise RuntimeError(f"expected {n} rows, read {at}")
     return out
 
 
 def _fetch_points(db) -> CurvePoints | None:
-    db.con.execute(_GROUPS_SQL)
+    con = db.con
+    con.execute(_GROUPS_SQL)
     try:
-        n = db.con.execute(_POINTS_COUNT_SQL).fetchall()[0][0]
-        pts = _stream_into_arrays(db.con, _POINTS_SQL, POINT_DTYPES, n)
-        comp = db.con.execute(_COMPOUNDS_SQL).fetchnumpy()
+        n = con.execute(_ORDER_COUNT_SQL).fetchall()[0][0]
+        order = _stream_into_arrays(con, _ORDER_SQL, ORDER_DTYPES, n)
+        n_all = con.execute("SELECT count(*) FROM vapor_pressure").fetchall()[0][0]
+        table_rows = _stream_into_arrays(con, "SELECT _row::INTEGER AS row FROM vapor_pressure", {"row": np.int32},
+                                         n_all)["row"]
+        if not np.all(table_rows[1:] > table_rows[:-1]):  # not stored in row order: look rows up by sorting
+            by_row = np.argsort(table_rows, kind="stable")
+            at = by_row[np.searchsorted(table_rows, order["row"], sorter=by_row)]
+        else:
+            at = np.searchsorted(table_rows, order["row"])
+        del table_rows
+        values = {}
+        for name, expr in VALUE_COLUMNS.items():
+            column = _stream_into_arrays(con, f"SELECT {expr} AS x FROM vapor_pressure", {"x": np.float64}, n_all)["x"]
+            values[name] = column[at]
+            del column
+        del at
+        pts = {**order, **values}
+        comp = con.execute(_COMPOUNDS_SQL).fetchnumpy()
     finally:
-        db.con.execute("DROP TABLE _curve_groups")
+        con.execute("DROP TABLE _curve_groups")
+    release_freed_memory()  # the Arrow batches of the fetch
     if len(pts["g"]) == 0:
         return None
     return CurvePoints(
-        ids=np.asarray(comp["compound_id"], dtype=object), group=np.asarray(pts["g"], dtype=np.int64),
+        ids=np.asarray(comp["compound_id"], dtype=object), group=pts["g"],
         t=np.asarray(pts["t"], float), p=np.asarray(pts["p"], float), u=np.asarray(pts["u"], float),
-        row=np.asarray(pts["row"]),
+        row=pts["row"],
         compounds={"row": np.asarray(comp["row"]), "source": np.asarray(comp["source"], dtype=object),
                    **{c: np.asarray(comp[c], float) for c in ("tc", "pc", "omega", "tb", "tm")}},
     )

@@ -1,9 +1,10 @@
-"""Give memory that numpy freed back to the operating system.
+"""Give memory that was freed back to the operating system.
 
 glibc keeps freed heap memory in its arenas (one per thread that
-allocated), so after a threaded pass over millions of points the process
-can stay hundreds of megabytes above what it uses. ``malloc_trim(0)``
-returns it; elsewhere (macOS, Windows, musl) this is a no-op.
+allocated), and Arrow's memory pool keeps freed buffers for reuse, so after
+a pass over millions of points the process can stay hundreds of megabytes
+above what it uses. ``malloc_trim(0)`` (glibc only; a no-op elsewhere) and
+the pool's ``release_unused`` return it.
 """
 
 from __future__ import annotations
@@ -28,6 +29,10 @@ def _malloc_trim():
 _TRIM = _malloc_trim()
 
 
-def release_freed_memory() -> bool:
-    """Return freed heap memory to the system; True if anything was released."""
-    return bool(_TRIM(0)) if _TRIM is not None else False
+def release_freed_memory() -> None:
+    """Return freed heap and Arrow pool memory to the system."""
+    import pyarrow
+
+    pyarrow.default_memory_pool().release_unused()
+    if _TRIM is not None:
+        _TRIM(0)

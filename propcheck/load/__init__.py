@@ -12,6 +12,7 @@ from propcheck.errors import UsageError
 from propcheck.load.canonicalize import canonicalize
 from propcheck.load.mapping import read_mapping
 from propcheck.load.sources import display_source, open_source
+from propcheck.memory import release_freed_memory
 
 __all__ = ["load_database"]
 
@@ -50,6 +51,7 @@ def load_database(source: str, mapping_path: str | None = None) -> Database:
         _release(con, raw)
     if sum(info.rows_read for info in db.tables.values()) >= COMPRESS_ROWS:
         con.execute("CHECKPOINT work")  # compress what the batches left uncompressed
+        release_freed_memory()  # the Arrow batches that carried the rows
     used = {mapping.table(name).source_table.lower() for name in db.tables}
     for name in sorted(set(raw_tables) - used):
         db.notes.append(f"table {name!r} ({raw_tables[name].origin}) is not a canonical table; not loaded")

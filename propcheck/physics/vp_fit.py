@@ -333,8 +333,9 @@ def fit_in_blocks(group, t, p, n_groups, tc, pc, block_points: int = 1 << 18, wo
     holds at most about ``block_points`` points, and there are at least as
     many blocks as ``workers`` (default: the cores this process may use)
     when the data are large enough to be worth it; blocks are fitted on
-    that many threads (numpy releases the GIL in its array work). Results
-    are concatenated, so the outcome equals one call over all points.
+    that many threads (numpy releases the GIL in its array work). Each
+    block writes its results into one set of arrays, so the outcome equals
+    one call over all points.
     """
     group = np.asarray(group)
     workers = _workers() if workers is None else max(1, workers)
@@ -343,30 +344,41 @@ def fit_in_blocks(group, t, p, n_groups, tc, pc, block_points: int = 1 << 18, wo
     if len(group) <= block_points:
         return fit_vapor_pressure(group, t, p, n_groups, tc, pc, **kwargs)
 
-    def fit_block(lo_hi):
-        lo, hi = lo_hi
-        g_lo, g_hi = int(group[lo]), int(group[hi - 1]) + 1
-        return g_lo, g_hi, fit_vapor_pressure(group[lo:hi] - g_lo, t[lo:hi], p[lo:hi], g_hi - g_lo,
-                                              tc[g_lo:g_hi], pc[g_lo:g_hi], **kwargs)
-
     spans = group_blocks(group, block_points)
-    if workers > 1 and len(spans) > 1:
-        with ThreadPoolExecutor(max_workers=min(workers, len(spans))) as pool:
-            parts = list(pool.map(fit_block, spans))
-    else:
-        parts = [fit_block(span) for span in spans]
     per_group = ("form", "coef", "n_points", "t_min", "t_max", "scale", "anchor_misfit", "alt_scale", "free_form",
                  "free_coef")
     per_point = ("residual", "weight", "alt_residual")
-    merged = {}
+    merged: dict[str, np.ndarray] = {}
+
+    def fit_block(lo_hi):
+        """Fit one span and write its results into the merged arrays (disjoint slices: no lock needed)."""
+        lo, hi = lo_hi
+        g_lo, g_hi = int(group[lo]), int(group[hi - 1]) + 1
+        fit = fit_vapor_pressure(group[lo:hi] - g_lo, t[lo:hi], p[lo:hi], g_hi - g_lo, tc[g_lo:g_hi], pc[g_lo:g_hi],
+                                 **kwargs)
+        for name in per_group:
+            merged[name][g_lo:g_hi] = getattr(fit, name)
+        for name in per_point:
+            merged[name][lo:hi] = getattr(fit, name)
+
+    # the merged arrays are laid out from the first span's result types
+    lo, hi = spans[0]
+    g_hi = int(group[hi - 1]) + 1
+    first = fit_vapor_pressure(group[lo:hi], t[lo:hi], p[lo:hi], g_hi, tc[:g_hi], pc[:g_hi], **kwargs)
     for name in per_group:
-        first = getattr(parts[0][2], name)
-        out = np.zeros((n_groups,) + first.shape[1:], dtype=first.dtype)
-        if np.issubdtype(out.dtype, np.floating):
-            out[:] = np.nan
-        for g_lo, g_hi, fit in parts:
-            out[g_lo:g_hi] = getattr(fit, name)
-        merged[name] = out
+        value = getattr(first, name)
+        merged[name] = np.full((n_groups,) + value.shape[1:], np.nan if value.dtype.kind == "f" else 0, value.dtype)
+        merged[name][:g_hi] = value
     for name in per_point:
-        merged[name] = np.concatenate([getattr(fit, name) for _, _, fit in parts])
+        value = getattr(first, name)
+        merged[name] = np.empty(len(group), dtype=value.dtype)
+        merged[name][lo:hi] = value
+    del first
+    rest = spans[1:]
+    if workers > 1 and len(rest) > 1:
+        with ThreadPoolExecutor(max_workers=min(workers, len(rest))) as pool:
+            list(pool.map(fit_block, rest))
+    else:
+        for span in rest:
+            fit_block(span)
     return VpFit(tc=np.asarray(tc, float), pc=np.asarray(pc, float), **merged)
