@@ -166,12 +166,11 @@ def _fetch_points(db) -> CurvePoints | None:
         n_all = con.execute("SELECT count(*) FROM vapor_pressure").fetchall()[0][0]
         table_rows = _stream_into_arrays(con, "SELECT _row::INTEGER AS row FROM vapor_pressure", {"row": np.int32},
                                          n_all)["row"]
-        if not np.all(table_rows[1:] > table_rows[:-1]):  # not stored in row order: look rows up by sorting
-            by_row = np.argsort(table_rows, kind="stable")
-            at = by_row[np.searchsorted(table_rows, order["row"], sorter=by_row)]
-        else:
-            at = np.searchsorted(table_rows, order["row"])
-        del table_rows
+        # where each sorted point sits in table order: _row is unique, so one lookup array does it
+        position = np.zeros(int(table_rows.max(initial=0)) + 1, dtype=np.int64)
+        position[table_rows] = np.arange(n_all)
+        at = position[order["row"]]
+        del table_rows, position
         values = {}
         for name, expr in VALUE_COLUMNS.items():
             column = _stream_into_arrays(con, f"SELECT {expr} AS x FROM vapor_pressure", {"x": np.float64}, n_all)["x"]

@@ -1,11 +1,13 @@
 """Least squares for many small problems at once: one fit per group (compound).
 
 Every group shares the same linear-in-parameters model ``y = X @ beta``; the
-normal equations of all groups are accumulated with ``np.bincount`` and
-solved as one batched ``np.linalg.solve``, so the cost is a few passes over
-the rows whatever the number of compounds. The robust variant iterates
-reweighted least squares with Tukey's biweight on residuals scaled by each
-group's median absolute deviation, so that one blunder does not bend a fit.
+normal equations of all groups are formed together and solved as one
+batched ``np.linalg.solve``, so the cost is a few passes over the rows
+whatever the number of compounds. The robust variant lays each group's rows
+out as one line of a dense block (groups of similar size share a block),
+and iterates reweighted least squares with Tukey's biweight on residuals
+scaled by each group's median absolute deviation, so that one blunder does
+not bend a fit; a group leaves the iteration once its fit has settled.
 """
 
 from __future__ import annotations
@@ -145,19 +147,7 @@ def _lstsq_t(xt: np.ndarray, y: np.ndarray, group: np.ndarray, n_groups: int, w:
     for c, (i, j) in enumerate(pairs):
         xtx[:, i, j] = xtx[:, j, i] = sums[:, c]
     xty[:] = sums[:, len(pairs):]
-    # scale columns to keep the batched solve well conditioned
-    diag = np.sqrt(np.abs(np.einsum("gii->gi", xtx)))
-    diag[diag == 0] = 1.0
-    scaled = xtx / diag[:, :, None] / diag[:, None, :]
-    beta = np.full((n_groups, k), np.nan)
-    # unit-diagonal Gram matrices: a determinant near 0 means (near-)singular
-    with np.errstate(all="ignore"):
-        det = np.linalg.det(scaled)
-    good = np.isfinite(det) & (np.abs(det) > 1e-13)
-    if good.any():
-        sol = np.linalg.solve(scaled[good], (xty[good] / diag[good])[..., None])[..., 0]
-        beta[good] = sol / diag[good]
-    return beta
+    return _solve_normal(xtx, xty)
 
 
 @dataclass
