@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import tempfile
 from pathlib import Path
 
 import duckdb
@@ -17,6 +18,7 @@ from propcheck.memory import release_freed_memory
 __all__ = ["load_database"]
 
 COMPRESS_ROWS = 2_000_000  # rows from which compressing the working tables pays for its time
+LARGE_SOURCE_BYTES = 100 * 2**20  # sources from this size get a working database file (see _attach_work_catalog)
 
 
 def load_database(source: str, mapping_path: str | None = None) -> Database:
@@ -25,14 +27,12 @@ def load_database(source: str, mapping_path: str | None = None) -> Database:
     mapping = read_mapping(mapping_path, data_dir)
     con = duckdb.connect(":memory:")
     con.execute("SET enable_progress_bar = false")  # propcheck reports its own progress
-    # the working tables live in a compressed in-memory catalog: after a checkpoint a
-    # large point table takes a fraction of its plain in-memory size
-    con.execute("ATTACH ':memory:' AS work (COMPRESS)")
-    con.execute("USE work")
     con.execute("SET allocator_background_threads = true")  # hand freed memory back to the system
-    con.execute("SET allocator_flush_threshold = '16MB'")
+    workdir = _attach_work_catalog(con, source)
     kind, raw_tables = open_source(con, source, mapping)
     db = Database(con=con, source=display_source(source), kind=kind)
+    if workdir is not None:
+        db.cache["_workdir"] = workdir  # removed with the Database
     if mapping.path:
         db.notes.append(f"mapping file: {mapping.path}")
     for spec in TABLES.values():
@@ -56,6 +56,42 @@ def load_database(source: str, mapping_path: str | None = None) -> Database:
     for name in sorted(set(raw_tables) - used):
         db.notes.append(f"table {name!r} ({raw_tables[name].origin}) is not a canonical table; not loaded")
     return db
+
+
+def _source_bytes(source: str) -> int:
+    """Size of the source's files (0 for a server)."""
+    path = Path(source)
+    try:
+        if path.is_dir():
+            return sum(p.stat().st_size for p in path.iterdir() if p.is_file())
+        return path.stat().st_size if path.is_file() else 0
+    except OSError:
+        return 0
+
+
+def _attach_work_catalog(con, source: str) -> tempfile.TemporaryDirectory | None:
+    """Attach and use the catalog ``work`` that holds the canonical tables.
+
+    Normally a compressed in-memory database. For a source of LARGE_SOURCE_BYTES
+    or more, a database file in a temporary directory (removed with the run):
+    DuckDB then writes large tables compressed as it creates them and keeps
+    only what it works on in memory, so ten million points never sit in
+    memory uncompressed. The user's source is never written either way.
+    """
+    if _source_bytes(source) < LARGE_SOURCE_BYTES:
+        con.execute("ATTACH ':memory:' AS work (COMPRESS)")
+        con.execute("USE work")
+        return None
+    workdir = tempfile.TemporaryDirectory(prefix="propcheck-work-")
+    file = Path(workdir.name) / "work.duckdb"
+    con.execute(f"ATTACH '{_sql_path(file)}' AS work")
+    con.execute("USE work")
+    con.execute(f"SET temp_directory = '{_sql_path(Path(workdir.name) / 'spill')}'")
+    return workdir
+
+
+def _sql_path(path: Path) -> str:
+    return str(path).replace("'", "''")
 
 
 def _release(con, raw) -> None:

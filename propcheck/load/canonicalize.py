@@ -66,9 +66,8 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
     try:
         # files are read through a view (no copy: read once, for the table);
         # a driver's Arrow stream can be read only once, so it is copied
-        # (not TEMP: the table is filled through a second cursor, which sees only the catalog)
         raw_kind = "VIEW" if raw.keep is None else "TABLE"
-        con.execute(f"CREATE {raw_kind} {raw_name} AS SELECT row_number() OVER () AS _row, * FROM {raw.relation}")
+        con.execute(f"CREATE TEMP {raw_kind} {raw_name} AS SELECT row_number() OVER () AS _row, * FROM {raw.relation}")
         described = con.execute(f"DESCRIBE {raw_name}").fetchall()
     except duckdb.Error as exc:
         reason = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
@@ -117,7 +116,7 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
             select.append(_q(src))
             info.extra_columns.append(src)
     try:
-        _fill(con, spec.name, f"SELECT {', '.join(select)} FROM {_catalog(con)}.{raw_name}", _large(raw.origin))
+        con.execute(f"CREATE TABLE {spec.name} AS SELECT {', '.join(select)} FROM {raw_name}")
     except duckdb.Error as exc:
         reason = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
         raise UsageError(f"cannot read ({reason})", file=raw.origin, table=spec.name) from None
@@ -127,46 +126,6 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
     _report_bad_cells(db, spec, raw, chosen, info)
     con.execute(f"DROP {raw_kind} {raw_name}")
     db.tables[spec.name] = info
-
-
-BATCH_ROWS = 1 << 20  # rows moved at a time from the source into the working table
-COMPRESS_EVERY = 2_000_000  # rows appended between two compressions of the working tables
-LARGE_FILE_BYTES = 100 * 2**20  # files from this size are loaded batch by batch (about 1.5M CSV rows)
-
-
-def _catalog(con) -> str:
-    return con.execute("SELECT current_database()").fetchall()[0][0]
-
-
-def _large(origin: str) -> bool:
-    """A source file big enough to be worth filling batch by batch."""
-    try:
-        return Path(origin).is_file() and Path(origin).stat().st_size >= LARGE_FILE_BYTES
-    except OSError:
-        return False
-
-
-def _fill(con, table: str, select: str, batches: bool) -> None:
-    """Create ``table`` from ``select``, in one statement or batch by batch.
-
-    Batch by batch, the table is compressed (``CHECKPOINT``) every
-    ``COMPRESS_EVERY`` rows, so a large table never sits in memory
-    uncompressed as a whole; the source is still read once, in order.
-    """
-    if not batches:
-        con.execute(f"CREATE TABLE {table} AS {select}")
-        return
-    con.execute(f"CREATE TABLE {table} AS {select} LIMIT 0")
-    reader = con.cursor().sql(select).to_arrow_reader(BATCH_ROWS)
-    pending = 0
-    for batch in reader:
-        con.register("_propcheck_batch", batch)
-        con.execute(f"INSERT INTO {table} SELECT * FROM _propcheck_batch")
-        con.unregister("_propcheck_batch")
-        pending += batch.num_rows
-        if pending >= COMPRESS_EVERY:
-            con.execute(f"CHECKPOINT {_catalog(con)}")
-            pending = 0
 
 
 def _conversion(units: dict[str, Conversion], column: str) -> Conversion | None:
