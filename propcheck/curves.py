@@ -90,9 +90,18 @@ WHERE compound_id IN (SELECT v.compound_id FROM vapor_pressure v JOIN compounds 
                       WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc))
 """
 
-# The order of the points is found by sorting their keys alone; their values are then read
-# column by column in table order and put in that order: neither DuckDB nor Python ever
-# holds a second full copy of all the values.
+# Up to a few million points, one sorted query. Beyond, the order of the points is found by
+# sorting their keys alone; their values are then read column by column in table order and
+# put in that order: neither DuckDB nor Python ever holds a second full copy of all values.
+_POINTS_SQL = """
+SELECT c.g::INTEGER AS g, v._row::INTEGER AS row, v.t AS t, v.p AS p,
+       coalesce(v.uncertainty, 'NaN'::DOUBLE) AS u
+FROM vapor_pressure v JOIN _curve_groups c USING (compound_id)
+WHERE v.t > 0 AND v.p > 0 AND (c.tc IS NULL OR v.t < c.tc)
+ORDER BY c.g, v.t, v._row
+"""
+SORT_IN_ONE_QUERY = 4_000_000  # points up to which one sorted query fetches them (faster, more memory)
+
 _ORDER_SQL = """
 SELECT c.g::INTEGER AS g, v._row::INTEGER AS row
 FROM vapor_pressure v JOIN _curve_groups c USING (compound_id)
@@ -162,22 +171,10 @@ def _fetch_points(db) -> CurvePoints | None:
     con.execute(_GROUPS_SQL)
     try:
         n = con.execute(_ORDER_COUNT_SQL).fetchall()[0][0]
-        order = _stream_into_arrays(con, _ORDER_SQL, ORDER_DTYPES, n)
-        n_all = con.execute("SELECT count(*) FROM vapor_pressure").fetchall()[0][0]
-        table_rows = _stream_into_arrays(con, "SELECT _row::INTEGER AS row FROM vapor_pressure", {"row": np.int32},
-                                         n_all)["row"]
-        # where each sorted point sits in table order: _row is unique, so one lookup array does it
-        position = np.zeros(int(table_rows.max(initial=0)) + 1, dtype=np.int64)
-        position[table_rows] = np.arange(n_all)
-        at = position[order["row"]]
-        del table_rows, position
-        values = {}
-        for name, expr in VALUE_COLUMNS.items():
-            column = _stream_into_arrays(con, f"SELECT {expr} AS x FROM vapor_pressure", {"x": np.float64}, n_all)["x"]
-            values[name] = column[at]
-            del column
-        del at
-        pts = {**order, **values}
+        if n <= SORT_IN_ONE_QUERY:
+            pts = _stream_into_arrays(con, _POINTS_SQL, {**ORDER_DTYPES, **dict.fromkeys(VALUE_COLUMNS, np.float64)}, n)
+        else:
+            pts = _points_by_key_sort(con, n)
         comp = con.execute(_COMPOUNDS_SQL).fetchnumpy()
     finally:
         con.execute("DROP TABLE _curve_groups")
@@ -191,6 +188,24 @@ def _fetch_points(db) -> CurvePoints | None:
         compounds={"row": np.asarray(comp["row"]), "source": np.asarray(comp["source"], dtype=object),
                    **{c: np.asarray(comp[c], float) for c in ("tc", "pc", "omega", "tb", "tm")}},
     )
+
+
+def _points_by_key_sort(con, n: int) -> dict[str, np.ndarray]:
+    """The ``n`` curve points, sorted by their keys in DuckDB and gathered column by column in numpy."""
+    order = _stream_into_arrays(con, _ORDER_SQL, ORDER_DTYPES, n)
+    n_all = con.execute("SELECT count(*) FROM vapor_pressure").fetchall()[0][0]
+    table_rows = _stream_into_arrays(con, "SELECT _row::INTEGER AS row FROM vapor_pressure", {"row": np.int32},
+                                     n_all)["row"]
+    # where each sorted point sits in table order: _row is unique, so one lookup array does it
+    position = np.zeros(int(table_rows.max(initial=0)) + 1, dtype=np.int64)
+    position[table_rows] = np.arange(n_all)
+    at = position[order["row"]]
+    del table_rows, position
+    for name, expr in VALUE_COLUMNS.items():
+        column = _stream_into_arrays(con, f"SELECT {expr} AS x FROM vapor_pressure", {"x": np.float64}, n_all)["x"]
+        order[name] = column[at]
+        del column
+    return order
 
 
 def curves(db) -> Curves | None:
