@@ -49,11 +49,9 @@ def load_database(source: str, mapping_path: str | None = None) -> Database:
             continue
         canonicalize(db, spec, raw, mapping)
         _release(con, raw)
-    if workdir is None and sum(info.rows_read for info in db.tables.values()) >= COMPRESS_ROWS:
-        # in memory, tables are compressed only at a checkpoint; a working file was
-        # written compressed as the tables were created
-        con.execute("CHECKPOINT work")
-        release_freed_memory()
+    if sum(info.rows_read for info in db.tables.values()) >= COMPRESS_ROWS:
+        con.execute("CHECKPOINT work")  # compress what the batches left uncompressed
+        release_freed_memory()  # the Arrow batches that carried the rows
     used = {mapping.table(name).source_table.lower() for name in db.tables}
     for name in sorted(set(raw_tables) - used):
         db.notes.append(f"table {name!r} ({raw_tables[name].origin}) is not a canonical table; not loaded")
