@@ -50,8 +50,11 @@ def load_database(source: str, mapping_path: str | None = None) -> Database:
         canonicalize(db, spec, raw, mapping)
         _release(con, raw)
     if sum(info.rows_read for info in db.tables.values()) >= COMPRESS_ROWS:
-        con.execute("CHECKPOINT work")  # compress what the batches left uncompressed
-        release_freed_memory()  # the Arrow batches that carried the rows
+        # compress the working tables: in memory they are compressed only at a checkpoint; in a
+        # working file the checkpoint also lets DuckDB drop the pages it kept while writing
+        # (skipping it raised the peak of ten million CSV points from 1.1 to 1.5 GiB)
+        con.execute("CHECKPOINT work")
+        release_freed_memory()
     used = {mapping.table(name).source_table.lower() for name in db.tables}
     for name in sorted(set(raw_tables) - used):
         db.notes.append(f"table {name!r} ({raw_tables[name].origin}) is not a canonical table; not loaded")
