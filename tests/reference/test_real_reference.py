@@ -42,7 +42,7 @@ def _run(tmp_path, rows, points=None, pack=None):
     return found[found["rule"].isin(RULES)]
 
 
-def test_section3_values_raise_nothing(tmp_path):
+def test_published_values_raise_nothing(tmp_path):
     found = _run(tmp_path, _rows())
     assert found.empty, found[["rule", "compound_id", "column", "message"]].to_string()
 
@@ -58,7 +58,7 @@ def test_section3_values_raise_nothing(tmp_path):
         (6, "molar_mass", 1.0, 1.008, 100.205),  # n-heptane with one H too many
     ],
 )
-def test_section3_with_a_slip(tmp_path, index, column, factor, offset, consensus):
+def test_published_values_with_a_slip(tmp_path, index, column, factor, offset, consensus):
     rows = _rows()
     rows[index][column] = rows[index][column] * factor + offset
     found = _run(tmp_path, rows)
