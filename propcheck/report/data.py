@@ -74,12 +74,13 @@ def _versions() -> dict[str, str]:
     return out
 
 
-def _counts(frame: pd.DataFrame, key: str) -> pd.DataFrame:
-    table = pd.crosstab(frame[key], frame["severity"]) if not frame.empty else pd.DataFrame()
-    for severity in SEVERITIES:
-        if severity not in table.columns:
-            table[severity] = 0
-    return table
+def _counts(frame: pd.DataFrame, key: str) -> list[tuple]:
+    """(key, error, warning, info) per value of ``key``; counted by groupby, not row by row."""
+    if frame.empty:
+        return []
+    table = frame.groupby([key, "severity"]).size().unstack(fill_value=0)
+    table = table.reindex(columns=list(SEVERITIES), fill_value=0)
+    return list(zip(table.index, *(table[s].tolist() for s in ("error", "warning", "info"))))
 
 
 def build_report_data(
@@ -110,14 +111,14 @@ def build_report_data(
 
     rules = _counts(findings, "rule")
     by_rule = sorted(
-        ((rid, titles.get(rid, rid), int(r["error"]), int(r["warning"]), int(r["info"])) for rid, r in rules.iterrows()),
+        ((rid, titles.get(rid, rid), int(e), int(w), int(i)) for rid, e, w, i in rules),
         key=lambda x: (-x[2], -x[3], -x[4], x[0]),
     )
     names = dict(result.db.con.execute("SELECT compound_id, any_value(name) FROM compounds GROUP BY 1").fetchall())
     with_id = findings[findings["compound_id"].notna()]
     compounds = _counts(with_id, "compound_id")
     ranked = sorted(
-        ((str(cid), names.get(cid) or "", int(r["error"]), int(r["warning"]), int(r["info"])) for cid, r in compounds.iterrows()),
+        ((str(cid), names.get(cid) or "", int(e), int(w), int(i)) for cid, e, w, i in compounds),
         key=lambda x: (-x[2], -x[3], -x[4], x[0]),
     )
     worst = ranked[:worst_n]
@@ -157,7 +158,7 @@ def build_report_data(
     families = dict(result.db.con.execute("SELECT compound_id, any_value(family) FROM compounds GROUP BY 1").fetchall())
     fam = _counts(with_id.assign(_family=with_id["compound_id"].map(families).fillna("(no family)")), "_family")
     data.by_family = sorted(
-        ((str(f), int(r["error"]), int(r["warning"]), int(r["info"])) for f, r in fam.iterrows()),
+        ((str(f), int(e), int(w), int(i)) for f, e, w, i in fam),
         key=lambda x: (-x[1], -x[2], -x[3], x[0]),
     )
     data.scorecard = source_scorecard(result.db, findings)

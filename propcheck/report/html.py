@@ -13,7 +13,7 @@ from propcheck.report.caution import CAUTION
 from propcheck.report.data import ReportData
 from propcheck.report.formatting import fmt
 from propcheck.report.html_assets import CSS, JS
-from propcheck.report.plots import compound_svg, family_svg, history_svg
+from propcheck.report.plots import compound_svgs, family_svg, history_svg
 
 __all__ = ["render_html"]
 
@@ -152,8 +152,10 @@ def _panels(data: ReportData) -> str:
     if not data.panels:
         return '<p class="lead">No compound was flagged.</p>'
     cards = []
-    by_compound = {cid: frame for cid, frame in data.findings.groupby("compound_id")} if len(data.findings) else {}
-    for panel in data.panels:  # bounded by PANEL_CAP
+    frame = data.findings
+    shown = frame[frame["compound_id"].isin([p.compound_id for p in data.panels])] if len(frame) else frame
+    by_compound = {cid: mine for cid, mine in shown.groupby("compound_id")} if len(shown) else {}  # panels' compounds only
+    for panel, svg in zip(data.panels, compound_svgs(data.panels)):  # bounded by PANEL_CAP
         mine = by_compound.get(panel.compound_id)
         items = "" if mine is None else "".join(
             f'<li><span class="sev sev-{_e(s)}">{_e(s)}</span> {_e(m)}</li>'
@@ -169,7 +171,7 @@ def _panels(data: ReportData) -> str:
             f'<div class="panel" id="panel-{_e(panel.compound_id)}"><header><b>{_e(panel.compound_id)}</b>'
             f'<span>{_e(panel.name)} &middot; {panel.n_findings} finding(s) &middot; '
             f'<a href="#findings-section" data-filter-compound="{_e(panel.compound_id)}">show in table</a></span></header>'
-            f"{compound_svg(panel)}{fit}<ul>{items}</ul></div>"
+            f"{svg}{fit}<ul>{items}</ul></div>"
         )
     more = data.n_flagged_compounds - len(data.panels)
     note = f'<p class="note">{more} further flagged compound(s) without a panel (see the findings table).</p>' if more > 0 else ""

@@ -15,7 +15,7 @@ import numpy as np  # noqa: E402
 
 from propcheck.report.figures import P_NORMAL, CompoundPanel, FamilyPanel  # noqa: E402
 
-__all__ = ["compound_figure", "compound_svg", "family_svg", "history_svg"]
+__all__ = ["compound_figure", "compound_svg", "compound_svgs", "family_svg", "history_svg"]
 
 INK = "#1f2a36"
 GRID = "#d5dbe1"
@@ -44,9 +44,15 @@ _STYLE = {
 
 
 def _svg(fig) -> str:
+    text = _svg_text(fig)
+    plt.close(fig)
+    return text
+
+
+def _svg_text(fig) -> str:
+    """The figure as inline SVG text; the figure stays open."""
     buffer = io.StringIO()
     fig.savefig(buffer, format="svg", dpi=110, metadata={"Date": None, "Creator": None})
-    plt.close(fig)
     text = buffer.getvalue()
     text = text[text.index("<svg"):]
     text = re.sub(r"\s*<metadata>.*?</metadata>", "", text, flags=re.S)  # RDF block: external namespace URIs only
@@ -56,53 +62,97 @@ def _svg(fig) -> str:
 
 def compound_svg(panel: CompoundPanel) -> str:
     """ln p against 1/T: points, fitted curve, flagged points, tb, critical point, corrections."""
+    return compound_svgs([panel])[0]
+
+
+def compound_svgs(panels: list[CompoundPanel]) -> list[str]:
+    """:func:`compound_svg` of each panel, drawn one after another on one reused figure.
+
+    Creating a figure, its axes and their ticks is a fifth of a panel's cost;
+    emptying the axes and putting them back where a new figure has them gives
+    the same SVG text.
+    """
+    out = []
     with plt.rc_context(_STYLE):
-        return _svg(compound_figure(panel))
+        fig, ax = _compound_axes()
+        home = ax.get_position(original=True).frozen(), ax.get_xlim(), ax.get_ylim()
+        try:
+            for panel in panels:
+                _draw_compound(ax, panel)
+                out.append(_svg_text(fig))
+                _empty(ax, home)
+        finally:
+            plt.close(fig)
+    return out
+
+
+def _compound_axes():
+    return plt.subplots(figsize=(4.6, 3.1), layout="constrained")
+
+
+def _empty(ax, home) -> None:
+    """Remove what :func:`_draw_compound` drew; restore a new figure's position and limits."""
+    position, xlim, ylim = home
+    for artist in [*ax.lines, *ax.texts, *ax.patches, *ax.collections, *ax.images]:
+        artist.remove()
+    if ax.get_legend() is not None:
+        ax.get_legend().remove()
+    ax.relim()  # forget the data limits
+    ax.set_xlim(xlim)  # what a panel with nothing to plot shows
+    ax.set_ylim(ylim)
+    ax.set_autoscale_on(True)  # (set_xlim and set_ylim turned it off)
+    ax.set_position(position)  # constrained layout starts from here, as in a new figure
+    ax.set_in_layout(True)  # (set_position takes the axes out of the layout)
 
 
 def compound_figure(panel: CompoundPanel):
     """The matplotlib figure behind :func:`compound_svg` (the caller closes it)."""
     with plt.rc_context(_STYLE):
-        fig, ax = plt.subplots(figsize=(4.6, 3.1), layout="constrained")
-        x_all = [1.0 / panel.t] if len(panel.t) else []
-        good = np.isfinite(panel.p) & (panel.p > 0) & (panel.t > 0)
-        ok = good & ~panel.flagged
-        if ok.any():
-            ax.plot(1000.0 / panel.t[ok], np.log(panel.p[ok]), "o", ms=4, color=DATA, label="data points")
-        bad = good & panel.flagged
-        if bad.any():
-            ax.plot(1000.0 / panel.t[bad], np.log(panel.p[bad]), "X", ms=7, color=FLAG, label="flagged point")
-        if len(panel.curve_t) >= 2:  # the run's own curve (the one the rules judged by), sampled in figures.py
-            ax.plot(1000.0 / panel.curve_t, panel.curve_ln_p, "-", lw=1.2, color=FIT, label=_wrap(panel.curve_label))
-        if panel.tb:
-            ax.plot([1000.0 / panel.tb], [np.log(P_NORMAL)], "s", ms=6, mfc="white", mec=MARK, mew=1.5,
-                    label="tb at 101.325 kPa")
-        if panel.tc and panel.pc and panel.pc > 0:
-            ax.plot([1000.0 / panel.tc], [np.log(panel.pc)], "D", ms=6, mfc="white", mec=INK, mew=1.5,
-                    label="critical point")
-        shown_fix = False
-        for col, t, observed, corrected in panel.corrections:
-            if col == "p" and np.isfinite(t) and corrected > 0:
-                xy = (1000.0 / t, np.log(corrected))
-                ax.plot(*xy, "o", ms=7, mfc="none", mec=FIX, mew=1.6, label=None if shown_fix else "corrected value")
-                if observed and observed > 0:
-                    ax.annotate("", xy=xy, xytext=(1000.0 / t, np.log(observed)),
-                                arrowprops={"arrowstyle": "->", "color": FIX, "lw": 1.0})
-                shown_fix = True
-            elif col in ("tb", "tc") and corrected > 0:
-                y = np.log(P_NORMAL) if col == "tb" else (np.log(panel.pc) if panel.pc and panel.pc > 0 else None)
-                if y is not None:
-                    ax.plot([1000.0 / corrected], [y], "o", ms=7, mfc="none", mec=FIX, mew=1.6,
-                            label=None if shown_fix else "corrected value")
-                    shown_fix = True
-        ax.set_xlabel("1000 / T  [1/K]")
-        ax.set_ylabel("ln(p / Pa)")
-        if not x_all and not panel.tb and not panel.tc:
-            ax.text(0.5, 0.5, "no vapor-pressure data", transform=ax.transAxes, ha="center", color=FIT)
-        handles, labels = ax.get_legend_handles_labels()
-        if handles:
-            ax.legend(loc="best")
+        fig, ax = _compound_axes()
+        _draw_compound(ax, panel)
         return fig
+
+
+def _draw_compound(ax, panel: CompoundPanel) -> None:
+    """Draw one compound's panel on empty axes."""
+    x_all = [1.0 / panel.t] if len(panel.t) else []
+    good = np.isfinite(panel.p) & (panel.p > 0) & (panel.t > 0)
+    ok = good & ~panel.flagged
+    if ok.any():
+        ax.plot(1000.0 / panel.t[ok], np.log(panel.p[ok]), "o", ms=4, color=DATA, label="data points")
+    bad = good & panel.flagged
+    if bad.any():
+        ax.plot(1000.0 / panel.t[bad], np.log(panel.p[bad]), "X", ms=7, color=FLAG, label="flagged point")
+    if len(panel.curve_t) >= 2:  # the run's own curve (the one the rules judged by), sampled in figures.py
+        ax.plot(1000.0 / panel.curve_t, panel.curve_ln_p, "-", lw=1.2, color=FIT, label=_wrap(panel.curve_label))
+    if panel.tb:
+        ax.plot([1000.0 / panel.tb], [np.log(P_NORMAL)], "s", ms=6, mfc="white", mec=MARK, mew=1.5,
+                label="tb at 101.325 kPa")
+    if panel.tc and panel.pc and panel.pc > 0:
+        ax.plot([1000.0 / panel.tc], [np.log(panel.pc)], "D", ms=6, mfc="white", mec=INK, mew=1.5,
+                label="critical point")
+    shown_fix = False
+    for col, t, observed, corrected in panel.corrections:
+        if col == "p" and np.isfinite(t) and corrected > 0:
+            xy = (1000.0 / t, np.log(corrected))
+            ax.plot(*xy, "o", ms=7, mfc="none", mec=FIX, mew=1.6, label=None if shown_fix else "corrected value")
+            if observed and observed > 0:
+                ax.annotate("", xy=xy, xytext=(1000.0 / t, np.log(observed)),
+                            arrowprops={"arrowstyle": "->", "color": FIX, "lw": 1.0})
+            shown_fix = True
+        elif col in ("tb", "tc") and corrected > 0:
+            y = np.log(P_NORMAL) if col == "tb" else (np.log(panel.pc) if panel.pc and panel.pc > 0 else None)
+            if y is not None:
+                ax.plot([1000.0 / corrected], [y], "o", ms=7, mfc="none", mec=FIX, mew=1.6,
+                        label=None if shown_fix else "corrected value")
+                shown_fix = True
+    ax.set_xlabel("1000 / T  [1/K]")
+    ax.set_ylabel("ln(p / Pa)")
+    if not x_all and not panel.tb and not panel.tc:
+        ax.text(0.5, 0.5, "no vapor-pressure data", transform=ax.transAxes, ha="center", color=FIT)
+    handles, labels = ax.get_legend_handles_labels()
+    if handles:
+        ax.legend(loc="best")
 
 
 def _wrap(label: str, width: int = 34) -> str:
