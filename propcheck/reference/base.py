@@ -79,6 +79,9 @@ class Reference(Protocol):
     def vapor_pressure(self, points: pd.DataFrame) -> pd.DataFrame:
         """``points`` has ``key, cas, t`` [K]; return :data:`VP_COLUMNS` rows, value in Pa."""
 
+    def vapor_pressure_cas(self) -> set[str]:
+        """The CAS numbers :meth:`vapor_pressure` can answer for (in some range of t)."""
+
 
 class CombinedReference:
     """Several adapters behind one interface: identity from the first, values from all."""
@@ -112,6 +115,9 @@ class CombinedReference:
         frames = [p.constants(compounds) for p in self.parts]
         frames = [f for f in frames if not f.empty]
         return pd.concat(frames, ignore_index=True) if frames else empty_constants()
+
+    def vapor_pressure_cas(self):
+        return set().union(*(p.vapor_pressure_cas() for p in self.parts))
 
     def vapor_pressure(self, points):
         frames = [p.vapor_pressure(points) for p in self.parts]

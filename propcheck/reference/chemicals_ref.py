@@ -180,6 +180,9 @@ class ChemicalsReference:
         hit = pd.concat([hit.drop(columns="cas"), mw], ignore_index=True)
         return hit if not hit.empty else empty_constants()
 
+    def vapor_pressure_cas(self) -> set[str]:
+        return set().union(*(set(table.index) for table in self._vp.values()))
+
     def vapor_pressure(self, points: pd.DataFrame) -> pd.DataFrame:
         frames = []
         base = points[["key", "cas", "t"]].dropna()

@@ -78,6 +78,9 @@ class CoolPropReference:
         hit = compounds[["key", "cas"]].dropna().merge(self._long, on="cas")
         return hit.drop(columns="cas").reset_index(drop=True) if not hit.empty else empty_constants()
 
+    def vapor_pressure_cas(self) -> set[str]:
+        return set(self._fluids["cas"].dropna())
+
     def vapor_pressure(self, points: pd.DataFrame) -> pd.DataFrame:
         from CoolProp.CoolProp import PropsSI
 

@@ -72,6 +72,9 @@ class FakeReference:
         hit = compounds[["key", "cas"]].dropna().merge(self._constants, on="cas")
         return hit.drop(columns="cas").reset_index(drop=True) if not hit.empty else empty_constants()
 
+    def vapor_pressure_cas(self) -> set[str]:
+        return set(self._vp["cas"].dropna()) if "cas" in self._vp else set()
+
     def vapor_pressure(self, points: pd.DataFrame) -> pd.DataFrame:
         hit = points[["key", "cas", "t"]].dropna().merge(self._vp, on="cas")
         hit = hit[(hit["t"] >= hit["tmin"]) & (hit["t"] <= hit["tmax"])].reset_index(drop=True)

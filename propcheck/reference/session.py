@@ -51,9 +51,18 @@ def vapor_pressure(db) -> tuple[pd.DataFrame, pd.DataFrame]:
     if "vp" not in cache:
         ident = identity(db)
         unique = ident[~ident["compound_id"].duplicated(keep=False)]
-        points = db.df("SELECT _row, compound_id, t, p, source, "
-                       + ("uncertainty" if _has(db, "vapor_pressure", "uncertainty") else "NULL AS uncertainty")
-                       + " FROM vapor_pressure WHERE t IS NOT NULL AND p IS NOT NULL")
+        answerable = cache["reference"].vapor_pressure_cas()
+        known = unique.loc[unique["ref_cas"].isin(answerable), ["compound_id"]]
+        # only the points of compounds the reference has vapor pressures for: the others cannot
+        # be compared, and millions of them as a pandas frame would cost gigabytes for nothing
+        db.con.register("_reference_known", known)
+        try:
+            points = db.df("SELECT v._row, v.compound_id, v.t, v.p, v.source, "
+                           + ("v.uncertainty" if _has(db, "vapor_pressure", "uncertainty") else "NULL AS uncertainty")
+                           + " FROM vapor_pressure v JOIN _reference_known USING (compound_id)"
+                           " WHERE v.t IS NOT NULL AND v.p IS NOT NULL ORDER BY v._row")
+        finally:
+            db.con.unregister("_reference_known")
         points = points.merge(unique[["compound_id", "ref_cas", "note", "name_conflict"]], on="compound_id", how="left")
         ask = pd.DataFrame({"key": points["_row"], "cas": points["ref_cas"], "t": points["t"]}).dropna()
         cache["vp"] = (points, cache["reference"].vapor_pressure(ask))

@@ -159,3 +159,30 @@ def test_excluded_source_is_left_out(tmp_path, use_reference):
     rec = _run(tmp_path, rows, pack=pack)
     rec = rec[rec["rule"] == "const-off-reference"].iloc[0]
     assert "IUPAC" not in rec["message"] and "CoolProp" not in rec["message"]
+
+
+def test_only_points_the_reference_can_answer_are_fetched(tmp_path, use_reference):
+    """Points of a compound without reference vapor pressures are not carried through the cross-check."""
+    from propcheck.load import load_database
+    from propcheck.reference import session
+    from propcheck.reference.fake import FakeReference
+    from propcheck.rules.pack import load_pack
+    from propcheck.schema import run_schema_stage
+
+    reference = FakeReference(FIXTURE)
+    use_reference(reference)
+    answerable = reference.vapor_pressure_cas()
+    assert "110-54-3" in answerable  # n-hexane has vapor pressures in the fixture
+    # formaldehyde, which the fixture does not hold; its constants only make a plausible row (from memory)
+    unknown = {"compound_id": "X1", "name": "formaldehyde", "cas": "50-00-0", "formula": "CH2O", "molar_mass": 30.026,
+               "tc": 408.0, "pc": 6590000, "tb": 254.0, "omega": 0.28}
+    assert unknown["cas"] not in answerable
+    points = POINTS + [{"compound_id": "X1", "t": 254.0, "p": 101325}]
+    db = load_database(str(write_db(tmp_path / "db", CLEAN + [unknown], points)))
+    pack = load_pack()
+    run_schema_stage(db, pack)
+    db.cache["pack"] = pack
+    fetched, ref = session.vapor_pressure(db)
+    assert "X1" not in set(fetched["compound_id"])  # nothing to compare it with
+    assert {"C1", "C3"} <= set(fetched["compound_id"])  # n-hexane and water are compared
+    assert not ref.empty
