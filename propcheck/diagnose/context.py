@@ -18,7 +18,6 @@ import pandas as pd
 from propcheck.physics.atomic_weights import molar_mass, parse_formula
 from propcheck.physics.family_trend import trend_outliers
 from propcheck.physics.vapor_pressure import P_ATM, omega_from_psat
-from propcheck.physics.vp_fit import FORMS
 
 __all__ = ["NUMERIC", "TREND_COLUMNS", "Context", "FAMILY_DEFAULTS", "get_context"]
 
@@ -39,12 +38,6 @@ FAMILY_DEFAULTS = {
     "max_off_share": 0.5,
 }
 
-# Defaults of the rules that judge a compound by its own curve, used when the
-# run's pack does not give them (rules/default.toml gives the basis of each).
-CURVE_DEFAULTS = {
-    "tb-off-vp-curve": {"tol_wagner": 0.5, "tol_antoine": 1.0, "tol_cc": 2.0, "extrapolation_widening": 0.05},
-    "omega-off-vp-curve": {"tol": 0.015, "max_extrapolation": 0.05},
-}
 BRACKET_TB_TOL = 2.0  # K, tb from the two points bracketing 101325 Pa (Clausius-Clapeyron; common practice)
 
 
@@ -66,8 +59,8 @@ class Context:
     vp_tb_tol: np.ndarray | None = None  # K; tb-off-vp-curve's tolerance where from the curve
     curve: object | None = None  # the run's VpFit (propcheck.curves), None without fitted curves
     curve_g: np.ndarray | None = None  # each row's compound in ``curve``; -1 none or the series is scaled
-    curve_omega_tol: float = CURVE_DEFAULTS["omega-off-vp-curve"]["tol"]
-    curve_omega_extrapolation: float = CURVE_DEFAULTS["omega-off-vp-curve"]["max_extrapolation"]
+    curve_omega_tol: float = 0.0  # omega-off-vp-curve's tolerance, set with ``curve``
+    curve_omega_extrapolation: float = 0.0  # and its largest extrapolation, as a fraction of tc
     # median of the independent reference sources per column (NaN where none), when reference checks run
     reference: dict[str, np.ndarray] = field(default_factory=dict)
 
@@ -186,10 +179,12 @@ def build_context(db, params: dict | None = None) -> Context:
 
 
 def _settings(pack, rule_id: str) -> dict:
-    settings = dict(CURVE_DEFAULTS[rule_id])
-    if pack is not None and pack.enabled(rule_id):
-        settings.update({k: v for k, v in pack.params(rule_id).items() if k in settings})
-    return settings
+    """The rule's parameters in the run's pack, or in the built-in pack when the run does not use the rule."""
+    if pack is None or not pack.enabled(rule_id):
+        from propcheck.rules.pack import load_pack
+
+        pack = load_pack()
+    return pack.params(rule_id)
 
 
 def _own_curves(db, ctx: Context) -> None:
@@ -219,14 +214,13 @@ def _own_curves(db, ctx: Context) -> None:
     omega = _settings(pack, "omega-off-vp-curve")
     ctx.curve_omega_tol, ctx.curve_omega_extrapolation = float(omega["tol"]), float(omega["max_extrapolation"])
     # tb where the curve reaches 101325 Pa, with tb-off-vp-curve's tolerance (by form, widened when extrapolating)
-    tb = _settings(pack, "tb-off-vp-curve")
+    from propcheck.rules.tb_off_vp_curve import tb_tolerance
+
     tb_fit = np.where(usable, fit.t_at(P_ATM, gs), np.nan)
-    extrap = np.maximum(np.maximum(fit.t_min[gs] - tb_fit, tb_fit - fit.t_max[gs]), 0.0)
-    form = np.asarray(FORMS, dtype=object)[fit.form[gs]]
-    base = np.select([form == "wagner", form == "antoine"], [tb["tol_wagner"], tb["tol_antoine"]], tb["tol_cc"])
+    tol, _ = tb_tolerance(fit, gs, tb_fit, _settings(pack, "tb-off-vp-curve"))
     from_curve = np.isfinite(tb_fit)
     ctx.vp_tb = np.where(from_curve, tb_fit, ctx.vp_tb)
-    ctx.vp_tb_tol = np.where(from_curve, base + tb["extrapolation_widening"] * extrap, ctx.vp_tb_tol)
+    ctx.vp_tb_tol = np.where(from_curve, tol, ctx.vp_tb_tol)
 
 
 def _reference_medians(db, rows: pd.Series) -> dict[str, np.ndarray]:

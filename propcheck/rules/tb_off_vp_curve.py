@@ -75,6 +75,19 @@ RULE = RuleInfo(
 P_ATM = 101325.0
 
 
+def tb_tolerance(fit, g, tb_fit, params) -> tuple[np.ndarray, np.ndarray]:
+    """Tolerance [K] on the curve's tb of compounds ``g``, and how far [K] that tb lies outside their points.
+
+    By the fitted form (``tol_wagner``, ``tol_antoine``, ``tol_cc``), widened
+    by ``extrapolation_widening`` per K of extrapolation.
+    """
+    t_min, t_max = fit.t_min[g], fit.t_max[g]
+    extrap = np.where(tb_fit < t_min, t_min - tb_fit, np.where(tb_fit > t_max, tb_fit - t_max, 0.0))
+    form = np.asarray(FORMS, dtype=object)[fit.form[g]]
+    base = np.select([form == "wagner", form == "antoine"], [params["tol_wagner"], params["tol_antoine"]], params["tol_cc"])
+    return base + params["extrapolation_widening"] * extrap, extrap
+
+
 def check(db, params):
     cv = curves(db)
     if cv is None:
@@ -82,10 +95,7 @@ def check(db, params):
     fit = cv.fit
     g = np.arange(len(cv.ids))
     tb_fit = fit.t_at(P_ATM, g)
-    extrap = np.where(tb_fit < fit.t_min, fit.t_min - tb_fit, np.where(tb_fit > fit.t_max, tb_fit - fit.t_max, 0.0))
-    form = np.asarray(FORMS, dtype=object)[fit.form]
-    base = np.select([form == "wagner", form == "antoine"], [params["tol_wagner"], params["tol_antoine"]], params["tol_cc"])
-    tol = base + params["extrapolation_widening"] * extrap
+    tol, extrap = tb_tolerance(fit, g, tb_fit, params)
     err_tol = params["error_difference"] + params["extrapolation_widening"] * extrap
     with np.errstate(all="ignore"):
         p_at_tm = np.exp(fit.ln_p(cv.tm, g))

@@ -106,7 +106,7 @@ def run_schema_stage(db: Database, pack: Pack) -> list[Finding]:
         columns = ", ".join(["_row", *MODELS[table].to_schema().columns])
         suspect = suspect_rows_sql(schema)
         query = f"SELECT {columns} FROM {table}" + (f" WHERE {suspect}" if suspect else "")
-        batches = list_or_empty(db.con.sql(query).to_arrow_reader(CHUNK_ROWS), db, f"SELECT {columns} FROM {table} LIMIT 0")
+        batches = _batches_or_empty(db.con.sql(query).to_arrow_reader(CHUNK_ROWS), db, f"SELECT {columns} FROM {table} LIMIT 0")
         for batch in batches:
             chunk = batch.to_pandas().set_index("_row", drop=False)
             found, chunk_reject, chunk_null = _check_frame(db, table, chunk, schema, pack)
@@ -118,7 +118,7 @@ def run_schema_stage(db: Database, pack: Pack) -> list[Finding]:
     return findings
 
 
-def list_or_empty(reader, db: Database, empty_query: str):
+def _batches_or_empty(reader, db: Database, empty_query: str):
     """The batches of ``reader``; an empty table of the same columns if it has none.
 
     pandera then still checks the column types of a table whose rows all pass.
