@@ -103,3 +103,32 @@ def test_panel_cap_and_svg(tmp_path):
     svg = compound_svg(data.panels[0])
     assert svg.startswith("<svg") and "<path" in svg and "http://purl.org" not in svg
     assert data.families and any(f.n_flagged for f in data.families)
+
+
+def test_info_alone_flags_no_compound(tmp_path):
+    """A compound whose only finding is info (no reference data) gets no panel and no place among the worst."""
+    iapws97 = pytest.importorskip("iapws.iapws97")
+    from propcheck.pipeline import run_check
+    from propcheck.report import build_report_data
+    from propcheck.report.html import render_html
+    from tests.conftest import write_db
+
+    # water saturation pressures from IAPWS-IF97 (the iapws package), 300-600 K
+    t = np.linspace(300.0, 600.0, 9)
+    p = np.array([iapws97._PSat_T(x) * 1e6 for x in t])
+    slipped = p.copy()
+    slipped[4] /= 1000.0  # kPa entered as Pa: a point finding
+    # critical point of water: IAPWS R6-95 (2018), tc = 647.096 K, pc = 22.064 MPa
+    compounds = [{"compound_id": "water", "name": "water", "tc": 647.096, "pc": 22.064e6},
+                 # the same published curve under a name no compilation lists: reference-missing (info) only
+                 {"compound_id": "inhouse-1", "name": "in-house coolant 1", "tc": 647.096, "pc": 22.064e6}]
+    points = ([{"compound_id": "water", "t": float(x), "p": float(y)} for x, y in zip(t, slipped)]
+              + [{"compound_id": "inhouse-1", "t": float(x), "p": float(y)} for x, y in zip(t, p)])
+    data = build_report_data(run_check(str(write_db(tmp_path / "db", compounds, points))))
+    mine = data.findings[data.findings["compound_id"] == "inhouse-1"]
+    assert len(mine) and set(mine["severity"]) == {"info"}  # the premise: info findings only
+    assert [p.compound_id for p in data.panels] == ["water"]
+    assert [c for c, *_ in data.worst] == ["water"]
+    assert data.n_flagged_compounds == 1 and data.n_compounds_with_findings == 2
+    page = render_html(data)
+    assert 'id="panel-water"' in page and 'id="panel-inhouse-1"' not in page

@@ -61,7 +61,8 @@ class ReportData:
     panels: list[CompoundPanel] = field(default_factory=list)
     families: list[FamilyPanel] = field(default_factory=list)
     history: HistoryView | None = None
-    n_flagged_compounds: int = 0
+    n_flagged_compounds: int = 0  # compounds with at least one error or warning
+    n_compounds_with_findings: int = 0  # info included
 
 
 def _versions() -> dict[str, str]:
@@ -121,7 +122,10 @@ def build_report_data(
         ((str(cid), names.get(cid) or "", int(e), int(w), int(i)) for cid, e, w, i in compounds),
         key=lambda x: (-x[2], -x[3], -x[4], x[0]),
     )
-    worst = ranked[:worst_n]
+    # a compound is flagged by an error or a warning; info alone asks nothing of the steward
+    # (reference-missing is info for every compound no compilation lists)
+    flagged = [r for r in ranked if r[2] or r[3]]
+    worst = flagged[:worst_n]
     tables = [
         TableCount(t.name, t.origin, t.rows_read, t.rows_checked, t.rows_rejected, t.cells_rejected)
         for t in result.db.tables.values()
@@ -153,7 +157,7 @@ def build_report_data(
     data = ReportData(
         findings=findings, by_severity=by_severity, by_rule=by_rule, worst=worst, tables=tables,
         meta=meta, notes=list(result.db.notes), fail_on=fail_on, exit_code=exit_code,
-        triage=triage, fail_reasons=reasons, history=history, n_flagged_compounds=len(ranked),
+        triage=triage, fail_reasons=reasons, history=history, n_flagged_compounds=len(flagged), n_compounds_with_findings=len(ranked),
     )
     families = dict(result.db.con.execute("SELECT compound_id, any_value(family) FROM compounds GROUP BY 1").fetchall())
     fam = _counts(with_id.assign(_family=with_id["compound_id"].map(families).fillna("(no family)")), "_family")
@@ -163,7 +167,7 @@ def build_report_data(
     )
     data.scorecard = source_scorecard(result.db, findings)
     if plots:
-        chosen = [cid for cid, *_ in ranked if cid in names][:panel_cap]
+        chosen = [cid for cid, *_ in flagged if cid in names][:panel_cap]
         data.panels = build_compound_panels(result.db, findings, chosen)
         data.families = build_family_panels(result.db, findings)
     return data

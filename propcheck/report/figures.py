@@ -202,7 +202,7 @@ def build_family_panels(db: Database, findings: pd.DataFrame, limit: int = 12) -
         return []
     named = findings[findings["compound_id"].notna()]
     keys = set(zip(named["compound_id"], named["column"].fillna("")))
-    any_flag = set(named["compound_id"])
+    any_flag = set(named.loc[named["severity"].isin(("error", "warning")), "compound_id"])  # info flags nothing
     frame["_flag"] = frame["compound_id"].isin(any_flag)
     ranking = frame.groupby("family")["_flag"].agg(["sum", "size"]).reset_index()
     ranking = ranking[ranking["size"] >= 2].sort_values(["sum", "family"], ascending=[False, True])

@@ -96,7 +96,7 @@ def _summary(data: ReportData) -> str:
     )
     return (f'<div class="kpis">{"".join(kpis)}</div>{verdict}'
             f'<h3>Findings by rule</h3>{rules}'
-            f'<div class="grid2"><div><h3>Compounds with the most findings</h3>{worst}</div>'
+            f'<div class="grid2"><div><h3>Compounds with the most errors and warnings</h3>{worst}</div>'
             f'<div><h3>Findings by family</h3>{family}</div></div>'
             f'<h3>Findings by source</h3>{sources}<p class="note">Records are table rows; a source value counts '
             f'up to its first ";".</p>')
@@ -275,7 +275,7 @@ def render_html(data: ReportData) -> str:
 <body><div class="sheet">
 <div class="titleblock"><div class="t"><div class="kicker">Property data audit report</div>
 <h1>{_e(meta['source'])}</h1>
-<div class="sub">{sev['error']} errors, {sev['warning']} warnings, {sev['info']} info across {data.n_flagged_compounds} compounds</div></div>
+<div class="sub">{sev['error']} errors, {sev['warning']} warnings, {sev['info']} info across {data.n_compounds_with_findings} compounds</div></div>
 <dl><dt>Verdict</dt><dd><span class="verdict {verdict.lower()}">{verdict}</span></dd>
 <dt>Fail on</dt><dd>{_e(data.fail_on)}</dd><dt>Date (UTC)</dt><dd>{_e(meta['started'])}</dd>
 <dt>Fingerprint</dt><dd>{_e(meta.get('fingerprint'))}</dd><dt>Tool</dt><dd>propcheck {_e(meta['propcheck'])}</dd></dl></div>

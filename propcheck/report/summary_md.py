@@ -68,7 +68,7 @@ def render_summary(data: ReportData) -> str:
         lines += _table(["rule", "title", "error", "warning", "info"], [list(r) for r in data.by_rule])
     else:
         lines.append("No findings.")
-    lines += ["", "## Compounds with the most findings", ""]
+    lines += ["", "## Compounds with the most errors and warnings", ""]
     if data.worst:
         lines += _table(["compound_id", "name", "error", "warning", "info"], [list(r) for r in data.worst])
     else:
