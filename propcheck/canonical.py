@@ -1,4 +1,4 @@
-"""The canonical tables and columns of the data contract (section 1)."""
+"""The canonical tables and columns (README, 'Usage': tables, columns and canonical units)."""
 
 from __future__ import annotations
 

@@ -1,4 +1,4 @@
-"""The finding record of the data contract (section 2) and its stable id.
+"""The finding record (README, 'Usage': the findings.csv fields) and its stable id.
 
 Rules return findings either as :class:`Finding` objects or, when they are
 vectorised, as a DataFrame with the columns of :data:`FIELDS`;
@@ -35,7 +35,7 @@ def severity_rank(severity: str) -> int:
 
 @dataclass
 class Finding:
-    """One discrepancy, in canonical units (data contract section 2)."""
+    """One discrepancy, in canonical units (README, 'Usage': the findings.csv fields)."""
 
     rule: str
     severity: str

@@ -152,3 +152,40 @@ def test_extra_columns_are_carried_and_usable_by_custom_rules(tmp_path):
     assert found[["compound_id", "severity", "column", "message"]].values.tolist() == [
         ["C6", "info", "reviewed_by", "nobody signed this row"]
     ]
+
+
+@pytest.mark.parametrize("on_file", [False, True], ids=["in-memory", "working-file"])
+def test_custom_rules_may_name_tables_in_the_memory_catalog(tmp_path, monkeypatch, on_file):
+    # Tc IUPAC (Ambrose & Tsonopoulos 1995): n-hexane 507.6 K, n-heptane 540.2 K
+    import gc
+    from pathlib import Path
+
+    import propcheck.load as load
+
+    made = []
+    if on_file:
+        real_attach = load._attach_work_catalog
+        monkeypatch.setattr(load, "LARGE_SOURCE_BYTES", 0)
+
+        def spy(con, source):
+            made.append(real_attach(con, source))
+            return made[-1]
+
+        monkeypatch.setattr(load, "_attach_work_catalog", spy)
+    folder = write_db(tmp_path / "db", [{"compound_id": "C6", "name": "n-hexane", "tc": 507.6},
+                                        {"compound_id": "C7", "name": "n-heptane", "tc": 540.2}])
+    pack = tmp_path / "pack.toml"
+    pack.write_text("".join(
+        f'[custom.{rule}]\ntitle = "tc above 520 K"\nsql = "SELECT compound_id, tc AS observed FROM {table} WHERE tc > 520"\n'
+        for rule, table in (("unqualified", "compounds"), ("catalog", "memory.compounds"),
+                            ("catalog-schema", "memory.main.compounds"))))
+    result = run_check(str(folder), rules_path=str(pack))
+    for rule in ("unqualified", "catalog", "catalog-schema"):
+        found = result.findings[result.findings["rule"] == rule]
+        assert found[["compound_id", "observed"]].values.tolist() == [["C7", 540.2]], rule
+    if on_file:
+        assert made and made[0] is not None, "the working file was not used"
+        workdir = Path(made[0].name)
+        del result, made
+        gc.collect()
+        assert not workdir.exists(), "the working database file outlived the run"

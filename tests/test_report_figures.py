@@ -132,3 +132,37 @@ def test_info_alone_flags_no_compound(tmp_path):
     assert data.n_flagged_compounds == 1 and data.n_compounds_with_findings == 2
     page = render_html(data)
     assert 'id="panel-water"' in page and 'id="panel-inhouse-1"' not in page
+
+
+def test_free_fit_run_off_beyond_the_points_does_not_stretch_the_axis(tmp_path):
+    import matplotlib.pyplot as plt
+
+    from propcheck.pipeline import run_check
+    from propcheck.report import build_report_data
+    from propcheck.report.figures import CURVE_MARGIN
+    from propcheck.report.plots import compound_figure
+    from tests.conftest import write_db
+
+    # n-hexane saturation pressures from CoolProp 8.0.0 (reference EOS of Thol et al. 2019), 260-440 K;
+    # Pc 3.025 MPa (IUPAC, Ambrose & Tsonopoulos 1995), Tb 341.87 K (CRC Handbook 95th ed.); Tc 507.6 K
+    # (IUPAC) stored in degR: 507.6 * 1.8 = 913.68 (exact by definition), so the free fit runs on to 913.68 K
+    vp = [(260.0, 2862.8), (280.0, 8623.1), (300.0, 21837.4), (320.0, 48231.8), (340.0, 95521.8),
+          (360.0, 173271.8), (380.0, 292661.7), (400.0, 466276.6), (420.0, 708042.3), (440.0, 1033449.5)]
+    compound = {"compound_id": "C1", "name": "n-hexane", "formula": "C6H14", "tc": 913.68, "pc": 3.025e6,
+                "tb": 341.87, "omega": 0.300}
+    points = [{"compound_id": "C1", "t": t, "p": p} for t, p in vp]
+    result = run_check(str(write_db(tmp_path / "db", [compound], points)))
+    (panel,) = [x for x in build_report_data(result).panels if x.compound_id == "C1"]
+    assert panel.curve_label.startswith("Riedel")  # the premise: a free form, not anchored on (tc, pc)
+    g = result.db.cache["curves"].index()["C1"]
+    assert result.db.cache["curves"].fit.ln_p(np.array([913.68]), np.array([g]))[0] > 25  # it runs off by tc
+    span = (np.log(vp[0][1]), np.log(3.025e6))  # lowest point, critical point
+    reach = CURVE_MARGIN * (span[1] - span[0])
+    # the curve is still drawn beyond the last point, but only while it stays near the data and anchors
+    assert panel.curve_t.max() > 440.0 and panel.curve_ln_p.max() <= span[1] + reach + 1e-9
+    fig = compound_figure(panel)
+    try:
+        low, high = fig.axes[0].get_ylim()
+    finally:
+        plt.close(fig)
+    assert high - low <= 1.1 * (1 + CURVE_MARGIN) * (span[1] - span[0])  # matplotlib's 5 % margins each side

@@ -57,6 +57,7 @@ class Context:
     vp_tmax: np.ndarray | None = None
     vp_tb: np.ndarray | None = None  # tb of its own points: the fitted curve's, else the bracketing points'
     vp_tb_tol: np.ndarray | None = None  # K; tb-off-vp-curve's tolerance where from the curve
+    vp_tb_from_curve: np.ndarray | None = None  # True where vp_tb is the fitted curve's, False: bracketing points'
     curve: object | None = None  # the run's VpFit (propcheck.curves), None without fitted curves
     curve_g: np.ndarray | None = None  # each row's compound in ``curve``; -1 none or the series is scaled
     curve_omega_tol: float = 0.0  # omega-off-vp-curve's tolerance, set with ``curve``
@@ -173,6 +174,7 @@ def build_context(db, params: dict | None = None) -> Context:
         ctx.neighbours[column] = nb
     ctx.vp_tmax, ctx.vp_tb = _vp_summary(db, frame["compound_id"])
     ctx.vp_tb_tol = np.full(len(frame), BRACKET_TB_TOL)
+    ctx.vp_tb_from_curve = np.zeros(len(frame), dtype=bool)
     _own_curves(db, ctx)
     ctx.reference = _reference_medians(db, frame["_row"])
     return ctx
@@ -221,6 +223,7 @@ def _own_curves(db, ctx: Context) -> None:
     from_curve = np.isfinite(tb_fit)
     ctx.vp_tb = np.where(from_curve, tb_fit, ctx.vp_tb)
     ctx.vp_tb_tol = np.where(from_curve, tol, ctx.vp_tb_tol)
+    ctx.vp_tb_from_curve = from_curve
 
 
 def _reference_medians(db, rows: pd.Series) -> dict[str, np.ndarray]:

@@ -26,7 +26,9 @@ candidate does as well, else "possibly".
 
 When the caller asks which of several columns is wrong (attribution), tb and
 omega are also tried at the values the compound's own fitted curve gives
-(101325 Pa; Pitzer's definition at 0.7 tc): a value that is no slip but
+(101325 Pa; Pitzer's definition at 0.7 tc; without a fitted curve, tb
+interpolated between the two points bracketing 101325 Pa, and the
+suggestion says so): a value that is no slip but
 disagrees with the compound's own points is then named, rather than a
 constant its points confirm. A slip landing within that check's tolerance
 of such a value is the same answer (not a rival) and is preferred: it says
@@ -85,7 +87,9 @@ OWN_CURVE = {
     "tb": ("off its own vapor-pressure curve? the curve reaches 101.325 kPa at", "tb from vapor-pressure points"),
     "omega": ("off its own vapor-pressure curve? Pitzer's definition at 0.7 tc gives", "omega from vapor-pressure curve"),
 }
-_OWN_CURVE_WHAT = {what for what, _ in OWN_CURVE.values()}
+# Without a fitted curve, tb comes from the two points bracketing 101325 Pa (context.py).
+OWN_POINTS_TB = "off its own vapor-pressure points? interpolation between the two points bracketing 101.325 kPa gives"
+_OWN_CURVE_WHAT = {what for what, _ in OWN_CURVE.values()} | {OWN_POINTS_TB}
 
 
 def _is_unit(what: str) -> bool:
@@ -213,7 +217,8 @@ def diagnose(ctx: Context, rows, columns, raw: dict[str, np.ndarray] | None = No
                 cand_cell.append(k); cand_row.append(r); cand_what.append(f"value copied from {dup}? family trend gives")
                 cand_col.append(col); cand_val.append(ctx.expected_value(col, r)); cand_extra.append({})
             if len(cols) > 1 and col in OWN_CURVE and np.isfinite(own[col][k]) and not np.isclose(own[col][k], value):
-                cand_cell.append(k); cand_row.append(r); cand_what.append(OWN_CURVE[col][0])
+                from_points = col == "tb" and not ctx.vp_tb_from_curve[r]
+                cand_cell.append(k); cand_row.append(r); cand_what.append(OWN_POINTS_TB if from_points else OWN_CURVE[col][0])
                 cand_col.append(col); cand_val.append(float(own[col][k])); cand_extra.append({})
     cand_row_a = np.array(cand_row, dtype=int)
     v = {c: base[c][cand_row_a].copy() for c in NUMERIC}

@@ -3,8 +3,10 @@
 Per flagged compound: its vapor-pressure points, the fitted curve the rules
 judged it by (:func:`propcheck.curves.curves`, the run's cached fit: Wagner,
 Riedel, Antoine or Clausius-Clapeyron, chosen per compound) sampled from its
-lowest point below tc on to the critical point, the normal boiling point at
-101.325 kPa, the critical point, the points a finding names and the
+lowest point below tc on to the critical point (beyond its last point only
+while it stays near the points, tb and the critical point: a free fit
+extrapolated to tc may run off, and must not stretch the axis), the normal
+boiling point at 101.325 kPa, the critical point, the points a finding names and the
 corrected value where a rule diagnosed a slip. Per family: tc, tb and pc
 against molar mass with the members a finding names.
 
@@ -79,11 +81,20 @@ class FamilyPanel:
 
 
 CURVE_SAMPLES = 120  # temperatures per drawn curve, evenly spaced in 1/T
+# Beyond its last point the curve is drawn while ln p stays within the span of the panel's
+# points and anchors (tb at 101.325 kPa, the critical point) widened by this share of the
+# span (at least 1, a factor e in p): the axis then shows at most twice what the data span.
+CURVE_MARGIN = 0.5
 
 
 def _run_curves(db: Database, compounds: list[str], t: np.ndarray, p: np.ndarray, group: np.ndarray,
-                tc: np.ndarray) -> tuple[np.ndarray, np.ndarray, list[str]]:
+                tc: np.ndarray, anchors: np.ndarray | None = None) -> tuple[np.ndarray, np.ndarray, list[str]]:
     """The run's fitted curve of each compound, sampled over its points below tc and on to tc.
+
+    ``anchors`` (len(compounds), k): ln p of the anchored points the panel
+    shows (NaN where none). Beyond the last point the curve stops where it
+    first leaves the span of the points and anchors by more than
+    ``CURVE_MARGIN`` of it.
 
     Returns temperatures and ln p, both (len(compounds), CURVE_SAMPLES) with
     NaN rows where the run has no curve, and the curve's description ("" if none).
@@ -102,6 +113,7 @@ def _run_curves(db: Database, compounds: list[str], t: np.ndarray, p: np.ndarray
     hi = np.full(n, -np.inf)
     np.minimum.at(lo, group[usable], t[usable])
     np.maximum.at(hi, group[usable], t[usable])
+    last = hi.copy()  # the last fitted point: the curve is extrapolated beyond it
     hi = np.where(np.isfinite(tc) & (tc > hi), tc, hi)
     where = cv.index()
     g = np.array([where.get(cid, -1) for cid in compounds])  # loop over the capped panels only
@@ -112,12 +124,33 @@ def _run_curves(db: Database, compounds: list[str], t: np.ndarray, p: np.ndarray
     tt = 1.0 / (1.0 / lo[has, None] + frac * (1.0 / hi[has, None] - 1.0 / lo[has, None]))
     tt[:, 0], tt[:, -1] = lo[has], hi[has]  # exact ends: the reduced Wagner form is NaN a rounding error past tc
     ln_p = cv.fit.ln_p(tt, g[has, None])
+    y_lo, y_hi = _ln_p_span(t, p, group, n, anchors)
+    margin = np.maximum(CURVE_MARGIN * (y_hi - y_lo), 1.0)[has, None]
+    with np.errstate(invalid="ignore"):
+        off = (tt > last[has, None]) & ((ln_p < y_lo[has, None] - margin) | (ln_p > y_hi[has, None] + margin))
+    ln_p = np.where(np.cumsum(off, axis=1) > 0, np.nan, ln_p)  # from where it first runs off on
     drawn = np.isfinite(ln_p).any(axis=1)  # form 'none' (too few points) evaluates to NaN everywhere
     rows = np.nonzero(has)[0][drawn]
     t_curve[rows], ln_curve[rows] = tt[drawn], ln_p[drawn]
     for i in rows:
         labels[i] = cv.describe(g[i])
     return t_curve, ln_curve, labels
+
+
+def _ln_p_span(t: np.ndarray, p: np.ndarray, group: np.ndarray, n: int,
+               anchors: np.ndarray | None) -> tuple[np.ndarray, np.ndarray]:
+    """Lowest and highest ln p of each compound's drawn points and anchors (NaN where none)."""
+    lo = np.full(n, np.inf)
+    hi = np.full(n, -np.inf)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        shown = (t > 0) & (p > 0) & np.isfinite(p)
+        ln = np.log(p[shown])
+    np.minimum.at(lo, group[shown], ln)
+    np.maximum.at(hi, group[shown], ln)
+    if anchors is not None and anchors.size:
+        lo = np.minimum(lo, np.where(np.isfinite(anchors), anchors, np.inf).min(axis=1))
+        hi = np.maximum(hi, np.where(np.isfinite(anchors), anchors, -np.inf).max(axis=1))
+    return np.where(np.isfinite(lo), lo, np.nan), np.where(np.isfinite(hi), hi, np.nan)
 
 
 def build_compound_panels(db: Database, findings: pd.DataFrame, compounds: list[str]) -> list[CompoundPanel]:
@@ -143,8 +176,12 @@ def build_compound_panels(db: Database, findings: pd.DataFrame, compounds: list[
     group = points["compound_id"].map(index).to_numpy(dtype=int)
     t_all = points["t"].to_numpy(dtype=float)
     p_all = points["p"].to_numpy(dtype=float)
-    tc_all = info["tc"].reindex(compounds).to_numpy(dtype=float) if len(info) else np.full(len(compounds), np.nan)
-    curve_t, curve_ln_p, curve_label = _run_curves(db, compounds, t_all, p_all, group, tc_all)
+    tc_all, tb_all, pc_all = (info[c].reindex(compounds).to_numpy(dtype=float) if len(info)
+                              else np.full(len(compounds), np.nan) for c in ("tc", "tb", "pc"))
+    with np.errstate(invalid="ignore", divide="ignore"):  # the anchors the panel marks: tb, critical point
+        anchors = np.column_stack([np.where(np.isfinite(tb_all) & (tb_all != 0), np.log(P_ATM), np.nan),
+                                   np.where(np.isfinite(tc_all) & (tc_all != 0) & (pc_all > 0), np.log(pc_all), np.nan)])
+    curve_t, curve_ln_p, curve_label = _run_curves(db, compounds, t_all, p_all, group, tc_all, anchors)
     mine = findings[findings["compound_id"].isin(index)]
     point_findings = mine[mine["t"].notna() & (mine["table"] == "vapor_pressure")]
     flagged_keys = set(zip(point_findings["compound_id"], pd.to_numeric(point_findings["t"]).round(6)))

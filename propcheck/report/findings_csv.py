@@ -1,4 +1,4 @@
-"""findings.csv: one row per finding, the contract's fields in order."""
+"""findings.csv: one row per finding, the fields of README 'Usage' in order."""
 
 from __future__ import annotations
 

@@ -24,7 +24,7 @@ Example finding
     ``compounds row 7 (compounds.csv), column tc: '507.6 K' is not a number``
 
 References
-    1. Data contract, section 1 (canonical columns and units).
+    1. README, 'Usage' (canonical columns and units; a cell that does not parse).
 """
 
 from propcheck.rules.base import RuleInfo
@@ -35,5 +35,5 @@ RULE = RuleInfo(
     severity="error",
     stage="load",
     method="parse as IEEE 754 double after trimming; decimal comma with ';' delimiter",
-    reference="data contract section 1",
+    reference="README, 'Usage' (canonical columns and units)",
 )

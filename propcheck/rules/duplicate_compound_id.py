@@ -19,7 +19,7 @@ Example finding
     ``compounds row 31: compound_id LPC-0007 is used again (first at row 7, 'n-heptane')``
 
 References
-    1. Data contract, section 1 (compound_id is the unique key).
+    1. README, 'Usage' (rows that cannot be checked: a duplicate id).
 """
 
 from propcheck.rules.base import RuleInfo
@@ -30,5 +30,5 @@ RULE = RuleInfo(
     severity="error",
     stage="schema",
     method="uniqueness of the key column",
-    reference="data contract section 1",
+    reference="README, 'Usage' (rows that cannot be checked)",
 )

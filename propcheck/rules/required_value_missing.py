@@ -22,7 +22,8 @@ Example finding
     ``compounds row 12: required value name is empty``
 
 References
-    1. Data contract, section 1 (required columns).
+    1. README, 'Usage' (rows that cannot be checked) and 'The rule pack'
+       (required: compound_id and name; a point's compound_id, t and p).
 """
 
 from propcheck.rules.base import RuleInfo
@@ -32,6 +33,6 @@ RULE = RuleInfo(
     title="Required value is empty",
     severity="error",
     stage="schema",
-    method="not-null check on the contract's required columns",
-    reference="data contract section 1",
+    method="not-null check on the required columns (compound_id, name; a point's compound_id, t, p)",
+    reference="README, 'Usage' and 'The rule pack' (required values)",
 )

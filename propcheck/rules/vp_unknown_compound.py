@@ -20,7 +20,7 @@ Example finding
     ``vapor_pressure row 212: compound_id LPC-0099 is not in compounds``
 
 References
-    1. Data contract, section 1 (vapor_pressure.compound_id must exist in compounds).
+    1. README, 'Usage' (rows that cannot be checked: a point for an unknown compound).
 """
 
 from propcheck.rules.base import RuleInfo
@@ -31,5 +31,5 @@ RULE = RuleInfo(
     severity="error",
     stage="schema",
     method="referential integrity vapor_pressure -> compounds",
-    reference="data contract section 1",
+    reference="README, 'Usage' (rows that cannot be checked)",
 )

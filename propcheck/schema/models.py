@@ -13,7 +13,7 @@ __all__ = ["BoilingPointsModel", "CompoundsModel", "VaporPressureModel", "VpEqua
 
 
 class CompoundsModel(pa.DataFrameModel):
-    """The ``compounds`` table (data contract section 1)."""
+    """The ``compounds`` table (README, 'Usage': tables, columns and canonical units)."""
 
     compound_id: Series[str] = pa.Field(nullable=False, unique=True, title="compound id", description="the database's own key; unique, non-empty")
     name: Series[str] = pa.Field(nullable=False, title="name", description="common name")
@@ -36,7 +36,7 @@ class CompoundsModel(pa.DataFrameModel):
 
 
 class VaporPressureModel(pa.DataFrameModel):
-    """The ``vapor_pressure`` table (data contract section 1)."""
+    """The ``vapor_pressure`` table (README, 'Usage': tables, columns and canonical units)."""
 
     compound_id: Series[str] = pa.Field(nullable=False, title="compound id", description="must exist in compounds")
     t: Series[float] = pa.Field(nullable=False, title="temperature", description="K")
