@@ -61,6 +61,33 @@ def test_parquet_text_column_with_bad_cell(tmp_path):
     assert [(f.compound_id, f.column, f.observed) for f in db.load_findings] == [("C7", "tc", "hot")]
 
 
+@pytest.mark.parametrize("own_column", [False, True])
+def test_parquet_rows_numbered_as_in_the_file(tmp_path, own_column):
+    """Row numbers of a Parquet file (read in parallel, many row groups) are its data rows, 1-based.
+
+    With a column of the file named ``file_row_number`` (the reader's own
+    numbering cannot be used) the rows are numbered in the order read.
+    """
+    import pyarrow as pa
+    import pyarrow.parquet as pq
+
+    folder = tmp_path / "db"
+    folder.mkdir()
+    pd.DataFrame({"compound_id": ["C6"], "name": ["n-hexane"]}).to_parquet(folder / "compounds.parquet")
+    n = 50_000
+    # row k holds t = k K and p = k Pa (numbers chosen for bookkeeping, not physics)
+    columns = {"compound_id": ["C6"] * n, "t": [float(k) for k in range(1, n + 1)],
+               "p": [float(k) for k in range(1, n + 1)]}
+    if own_column:
+        columns["file_row_number"] = list(range(n, 0, -1))
+    pq.write_table(pa.table(columns), folder / "vapor_pressure.parquet", row_group_size=4096)
+    db = load_database(str(folder))
+    rows = db.con.execute("SELECT _row, t FROM vapor_pressure ORDER BY _row").fetchnumpy()
+    assert rows["_row"].tolist() == list(range(1, n + 1))
+    assert (rows["t"] == rows["_row"]).all()
+    assert ("file_row_number" in db.tables["vapor_pressure"].extra_columns) == own_column
+
+
 def test_two_files_for_one_table(tmp_path, run_cli):
     folder = write_db(tmp_path / "db", [{"compound_id": "C6", "name": "n-hexane"}])
     pd.DataFrame({"compound_id": ["C6"], "name": ["n-hexane"]}).to_parquet(folder / "compounds.parquet")

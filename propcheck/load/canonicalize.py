@@ -67,7 +67,7 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
         # files are read through a view (no copy: read once, for the table);
         # a driver's Arrow stream can be read only once, so it is copied
         raw_kind = "VIEW" if raw.keep is None else "TABLE"
-        con.execute(f"CREATE TEMP {raw_kind} {raw_name} AS SELECT row_number() OVER () AS _row, * FROM {raw.relation}")
+        _number_rows(con, raw_kind, raw_name, raw)
         described = con.execute(f"DESCRIBE {raw_name}").fetchall()
     except duckdb.Error as exc:
         reason = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
@@ -126,6 +126,23 @@ def canonicalize(db: Database, spec: TableSpec, raw: RawTable, mapping: Mapping)
     _report_bad_cells(db, spec, raw, chosen, info)
     con.execute(f"DROP {raw_kind} {raw_name}")
     db.tables[spec.name] = info
+
+
+def _number_rows(con, raw_kind: str, raw_name: str, raw: RawTable) -> None:
+    """Create ``raw_name``: the source's rows with their 1-based row number ``_row``.
+
+    The reader's own row number where it has one (Parquet: ``file_row_number``,
+    read in parallel; ten million rows load in about half the time of a
+    numbering window), else ``row_number() OVER ()`` in the order read.
+    """
+    if raw.numbered is not None:
+        try:
+            con.execute(f"CREATE TEMP {raw_kind} {raw_name} AS "
+                        f"SELECT file_row_number + 1 AS _row, * EXCLUDE (file_row_number) FROM {raw.numbered}")
+            return
+        except duckdb.BinderException:  # the file has a column of that name
+            pass
+    con.execute(f"CREATE TEMP {raw_kind} {raw_name} AS SELECT row_number() OVER () AS _row, * FROM {raw.relation}")
 
 
 def _conversion(units: dict[str, Conversion], column: str) -> Conversion | None:

@@ -33,6 +33,9 @@ class RawTable:
     origin: str
     csv_decimal: str = "."
     keep: Any = None  # driver connection / Arrow data that must live while the relation is read
+    # the relation with the reader's own 0-based row number as column ``file_row_number`` (Parquet):
+    # numbering rows without row_number() OVER () keeps the read parallel
+    numbered: str | None = None
 
 
 def display_source(source: str) -> str:
@@ -98,7 +101,8 @@ def _folder_tables(con, folder: Path, mapping: Mapping) -> dict[str, RawTable]:
         if suffix == ".csv":
             tables[name] = _csv_table(con, path, name, mapping)
         else:
-            tables[name] = RawTable(name, f"read_parquet({_sql_str(str(path))})", str(path))
+            tables[name] = RawTable(name, f"read_parquet({_sql_str(str(path))})", str(path),
+                                    numbered=f"read_parquet({_sql_str(str(path))}, file_row_number=true)")
     return tables
 
 
