@@ -91,8 +91,8 @@ WHERE compound_id IN (SELECT v.compound_id FROM vapor_pressure v JOIN compounds 
 """
 
 # Up to a few million points, one sorted query. Beyond, the order of the points is found by
-# sorting their keys alone; their values are then read column by column in table order and
-# put in that order: neither DuckDB nor Python ever holds a second full copy of all values.
+# sorting their keys alone; their values are then read once in table order, batch by batch,
+# and each batch scattered into place: neither DuckDB nor Python ever holds a second full copy.
 _POINTS_SQL = """
 SELECT c.g::INTEGER AS g, v._row::INTEGER AS row, v.t AS t, v.p AS p,
        coalesce(v.uncertainty, 'NaN'::DOUBLE) AS u
@@ -191,20 +191,32 @@ def _fetch_points(db) -> CurvePoints | None:
 
 
 def _points_by_key_sort(con, n: int) -> dict[str, np.ndarray]:
-    """The ``n`` curve points, sorted by their keys in DuckDB and gathered column by column in numpy."""
+    """The ``n`` curve points, sorted by their keys in DuckDB and scattered into place in one scan.
+
+    Only the keys (group, row) are sorted; the values are then read once in
+    table order, batch by batch, and each batch's curve points are written
+    to their sorted positions, found through their unique ``_row``.
+    """
     order = _stream_into_arrays(con, _ORDER_SQL, ORDER_DTYPES, n)
-    n_all = con.execute("SELECT count(*) FROM vapor_pressure").fetchall()[0][0]
-    table_rows = _stream_into_arrays(con, "SELECT _row::INTEGER AS row FROM vapor_pressure", {"row": np.int32},
-                                     n_all)["row"]
-    # where each sorted point sits in table order: _row is unique, so one lookup array does it
-    position = np.zeros(int(table_rows.max(initial=0)) + 1, dtype=np.int64)
-    position[table_rows] = np.arange(n_all)
-    at = position[order["row"]]
-    del table_rows, position
-    for name, expr in VALUE_COLUMNS.items():
-        column = _stream_into_arrays(con, f"SELECT {expr} AS x FROM vapor_pressure", {"x": np.float64}, n_all)["x"]
-        order[name] = column[at]
-        del column
+    # sorted position of each table row by its _row (-1: not a curve point)
+    slot = np.full(int(order["row"].max(initial=0)) + 1, -1, dtype=np.int32 if n < 2**31 else np.int64)
+    slot[order["row"]] = np.arange(n, dtype=slot.dtype)
+    for name in VALUE_COLUMNS:
+        order[name] = np.empty(n, dtype=np.float64)
+    values = ", ".join(f"{expr} AS {name}" for name, expr in VALUE_COLUMNS.items())
+    filled = 0
+    for batch in con.sql(f"SELECT _row::INTEGER AS row, {values} FROM vapor_pressure").to_arrow_reader(FETCH_ROWS):
+        rows = batch.column("row").to_numpy(zero_copy_only=False)
+        inside = rows < len(slot)
+        at = np.full(len(rows), -1, dtype=slot.dtype)
+        at[inside] = slot[rows[inside]]
+        keep = at >= 0
+        at = at[keep]
+        filled += len(at)
+        for name in VALUE_COLUMNS:
+            order[name][at] = batch.column(name).to_numpy(zero_copy_only=False)[keep]
+    if filled != n:
+        raise RuntimeError(f"expected {n} curve points, placed {filled}")
     return order
 
 

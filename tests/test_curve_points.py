@@ -1,7 +1,7 @@
 """The two ways of fetching the sorted curve points give the same arrays.
 
 Up to ``SORT_IN_ONE_QUERY`` points one sorted query fetches them; beyond,
-the keys are sorted alone and the values gathered column by column
+the keys are sorted alone and the values scattered into place batch by batch
 (propcheck/curves.py). Force the second way on the demo database, with its
 rows in the source order and shuffled, and compare.
 """
@@ -27,6 +27,7 @@ SAMPLE = Path(__file__).resolve().parents[1] / "sample_db"
 def _points(folder, monkeypatch, one_query: bool):
     if not one_query:
         monkeypatch.setattr(curves_module, "SORT_IN_ONE_QUERY", 0)
+        monkeypatch.setattr(curves_module, "FETCH_ROWS", 37)  # many batches, as with millions of points
     db = load_database(str(folder))
     run_schema_stage(db, load_pack())
     pts = curve_points(db)
