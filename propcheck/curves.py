@@ -16,7 +16,7 @@ import numpy as np
 from propcheck.memory import release_freed_memory
 from propcheck.physics.grouped_fit import group_blocks, group_median
 from propcheck.physics.unit_slips import PRESSURE_SLIPS
-from propcheck.physics.vapor_pressure import lee_kesler_psat
+from propcheck.physics.vapor_pressure import P_ATM, lee_kesler_psat
 from propcheck.physics.vp_fit import FORM_TITLES, FORMS, VpFit, fit_in_blocks
 
 __all__ = ["CurvePoints", "Curves", "curve_points", "curves"]
@@ -238,7 +238,17 @@ def _compute(db) -> Curves | None:
     release_freed_memory()  # the fitting threads' arenas would otherwise stay resident
     omega = comp["omega"]
     log_ratio, n_cs = _cs_log_ratio(group, t, p, n_groups, tc, pc, omega)
-    factor, slip = _series_slip(log_ratio)
+    from propcheck.rules.pack import settings_in_effect  # here: the pack module imports the rules
+
+    rel_tol = float(settings_in_effect(db.cache.get("pack"), "vp-series-scaled")["factor_tolerance"])
+    factor, slip = _series_slip(log_ratio, rel_tol)
+    # a series whose own curve reaches 101.325 kPa at the stored tb agrees with tb: what disagrees
+    # with Lee-Kesler is then tc, pc or omega (a pc in bar read as MPa, say), not the points
+    with np.errstate(all="ignore"):
+        at_tb = fit.ln_p(comp["tb"], np.arange(n_groups)) - np.log(P_ATM)
+    own_tb = np.abs(at_tb) < np.log1p(rel_tol)
+    factor = np.where(own_tb, np.nan, factor)
+    slip = np.where(own_tb, "", slip)
     return Curves(
         ids=pts.ids, group=group, t=t, p=p, u=pts.u, row=pts.row, db=db, c_row=comp["row"],
         c_source=comp["source"], tc=tc, pc=pc, omega=omega, tb=comp["tb"], tm=comp["tm"], fit=fit,
@@ -264,8 +274,11 @@ def _cs_log_ratio(group, t, p, n_groups, tc, pc, omega):
     return np.where(n_cs > 0, med, np.nan), n_cs
 
 
-def _series_slip(log_ratio, rel_tol=0.25):
-    """The unit factor a whole series is off by (as observed/expected), if any."""
+def _series_slip(log_ratio, rel_tol):
+    """The unit factor a whole series is off by (as observed/expected), if any.
+
+    ``rel_tol``: relative misfit of the ratio to a unit factor still counted as that factor.
+    """
     factor = np.full(len(log_ratio), np.nan)
     text = np.full(len(log_ratio), "", dtype=object)
     best = np.full(len(log_ratio), np.inf)

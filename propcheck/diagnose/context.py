@@ -180,15 +180,6 @@ def build_context(db, params: dict | None = None) -> Context:
     return ctx
 
 
-def _settings(pack, rule_id: str) -> dict:
-    """The rule's parameters in the run's pack, or in the built-in pack when the run does not use the rule."""
-    if pack is None or not pack.enabled(rule_id):
-        from propcheck.rules.pack import load_pack
-
-        pack = load_pack()
-    return pack.params(rule_id)
-
-
 def _own_curves(db, ctx: Context) -> None:
     """Each row's fitted curve; its tb (with tb-off-vp-curve's tolerance) replaces the bracketing points'.
 
@@ -201,6 +192,7 @@ def _own_curves(db, ctx: Context) -> None:
             pack is not None and not (pack.enabled("tb-off-vp-curve") or pack.enabled("omega-off-vp-curve"))):
         return
     from propcheck.curves import curves
+    from propcheck.rules.pack import settings_in_effect  # here: the pack module imports the rules
 
     cv = curves(db)
     if cv is None:
@@ -213,13 +205,13 @@ def _own_curves(db, ctx: Context) -> None:
     fit = cv.fit
     usable = (g >= 0) & (fit.form[gs] > 0) & ~np.isfinite(cv.series_factor[gs])
     ctx.curve, ctx.curve_g = fit, np.where(usable, g, -1)
-    omega = _settings(pack, "omega-off-vp-curve")
+    omega = settings_in_effect(pack, "omega-off-vp-curve")
     ctx.curve_omega_tol, ctx.curve_omega_extrapolation = float(omega["tol"]), float(omega["max_extrapolation"])
     # tb where the curve reaches 101325 Pa, with tb-off-vp-curve's tolerance (by form, widened when extrapolating)
     from propcheck.rules.tb_off_vp_curve import tb_tolerance
 
     tb_fit = np.where(usable, fit.t_at(P_ATM, gs), np.nan)
-    tol, _ = tb_tolerance(fit, gs, tb_fit, _settings(pack, "tb-off-vp-curve"))
+    tol, _ = tb_tolerance(fit, gs, tb_fit, settings_in_effect(pack, "tb-off-vp-curve"))
     from_curve = np.isfinite(tb_fit)
     ctx.vp_tb = np.where(from_curve, tb_fit, ctx.vp_tb)
     ctx.vp_tb_tol = np.where(from_curve, tol, ctx.vp_tb_tol)

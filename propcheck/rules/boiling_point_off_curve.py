@@ -36,9 +36,10 @@ Parameters
         Multiple of the tolerance from which a finding is an error.
 
 Example finding
-    ``bp 393.15 K at 15 Pa, but the Wagner fit of 8 points boils at 223.4 K
-    at 15 Pa`` with suggestion ``p: value is 0.0075x: mmHg entered as Pa?
-    corrected p 2000 Pa``
+    ``bp 393.15 K at 15 Pa, but the Wagner 2.5-5 (reduced, own tc and pc)
+    fit of 8 points boils at 223.4 K at that pressure (difference +170 K)``
+    with suggestion ``p: value is 0.0075x: mmHg entered as Pa? corrected p
+    1999.84 Pa`` (15 mmHg)
 
 References
     1. Poling, Prausnitz, O'Connell, The Properties of Gases and Liquids,
@@ -124,17 +125,18 @@ def check(db, params):
     rows = []
     for j, i in enumerate(idx):
         if p_text[j]:
-            column, suggestion = "p", f"p: {p_text[j]} corrected p {p_fixed[j]:.6g} Pa"
+            column, suggestion, corrected = "p", f"p: {p_text[j]} corrected p {p_fixed[j]:.6g} Pa", float(p_fixed[j])
         elif t_text[j]:
-            column, suggestion = "t", f"t: {t_text[j]} corrected t {t_fixed[j]:.6g} K"
+            column, suggestion, corrected = "t", f"t: {t_text[j]} corrected t {t_fixed[j]:.6g} K", float(t_fixed[j])
         else:
-            column, suggestion = "t", None
+            column, suggestion, corrected = "t", None, None
         rows.append({
             "rule": RULE.id, "table": "boiling_points", "compound_id": b["compound_id"].iat[i], "column": column,
             "severity": "error" if abs(diff[i]) > params["error_difference"] * tol[i] else "warning",
             "t": float(t[i]), "observed": float(t[i]) if column == "t" else float(p[i]),
             "expected": float(t_ref[i]) if column == "t" else float(p_at_t[i]), "tolerance": float(tol[i]),
-            "suggestion": suggestion, "reference": method[i], "row": int(b["b_row"].iat[i]), "source": b["source"].iat[i],
+            "suggestion": suggestion, "corrected": corrected, "reference": method[i], "row": int(b["b_row"].iat[i]),
+            "source": b["source"].iat[i],
             "message": (f"bp {t[i]:.6g} K at {p[i]:.6g} Pa, but the {method[i]} boils at {t_ref[i]:.6g} K "
                         f"at that pressure (difference {diff[i]:+.3g} K)"),
         })

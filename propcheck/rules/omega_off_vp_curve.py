@@ -94,14 +94,16 @@ def check(db, params):
     rows = []
     for gi in np.nonzero(bad)[0]:
         ratio = cv.omega[gi] / omega_curve[gi] if omega_curve[gi] else np.nan
-        suggestion = None
+        suggestion = corrected = None
         for factor in (10.0, 0.1):
             if np.isfinite(ratio) and abs(np.log(ratio / factor)) < np.log(1.15):
-                suggestion = f"decimal point slip? corrected omega {cv.omega[gi] / factor:.4g}"
+                corrected = float(cv.omega[gi] / factor)
+                suggestion = f"decimal point slip? corrected omega {corrected:.4g}"
         rows.append({
             "rule": RULE.id, "severity": "error" if abs(diff[gi]) > params["error_difference"] else "warning",
             "table": "compounds", "compound_id": cv.ids[gi], "column": "omega", "observed": float(cv.omega[gi]),
             "expected": float(omega_curve[gi]), "tolerance": params["tol"], "suggestion": suggestion,
+            "corrected": corrected,
             "reference": f"Pitzer's definition at 0.7 tc from the {cv.describe(gi)}",
             "message": (f"omega = {cv.omega[gi]:.4g} but the {cv.describe(gi)} gives {omega_curve[gi]:.4g} "
                         f"at 0.7 tc = {t07[gi]:.5g} K (with the stored tc and pc)"),

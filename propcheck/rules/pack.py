@@ -30,7 +30,7 @@ from propcheck.errors import UsageError
 from propcheck.findings import SEVERITIES
 from propcheck.rules.registry import all_rules
 
-__all__ = ["CustomRule", "Pack", "ResolvedRule", "default_pack_text", "load_pack"]
+__all__ = ["CustomRule", "Pack", "ResolvedRule", "default_pack_text", "load_pack", "settings_in_effect"]
 
 SLUG = re.compile(r"^[a-z][a-z0-9]*(-[a-z0-9]+)*$")
 CUSTOM_KEYS = {
@@ -118,6 +118,16 @@ def load_pack(user_path: str | None = None) -> Pack:
         _overlay(pack, _read_toml(text, user_path), user_path)
         pack.files.append(user_path)
     return pack
+
+
+def settings_in_effect(pack: Pack | None, rule_id: str) -> dict:
+    """The rule's parameters in the run's pack, or in the built-in pack when the run does not use the rule.
+
+    For code that borrows a sibling rule's judgement (its tolerance) whether or not that rule runs.
+    """
+    if pack is None or not pack.enabled(rule_id):
+        pack = load_pack()
+    return pack.params(rule_id)
 
 
 def _from_default(doc: dict) -> Pack:

@@ -118,12 +118,14 @@ def check(db, params):
             severity = "error" if abs(diff[gi]) > err_tol[gi] else "warning"
             rows.append(_row(cv, gi, severity, cv.tb[gi], tb_fit[gi], tol[gi], text[j] and f"{text[j]} corrected tb {fixed[j]:.6g} K",
                              f"tb = {cv.tb[gi]:.6g} K but the {cv.describe(gi)} reaches 101.325 kPa at "
-                             f"{tb_fit[gi]:.6g} K ({where}; difference {diff[gi]:+.3g} K)", None))
+                             f"{tb_fit[gi]:.6g} K ({where}; difference {diff[gi]:+.3g} K)", None,
+                             corrected=float(fixed[j]) if text[j] else None))
     return pd.DataFrame(rows) if rows else None
 
 
-def _row(cv, gi, severity, observed, expected, tolerance, suggestion, message, fallback):
+def _row(cv, gi, severity, observed, expected, tolerance, suggestion, message, fallback, corrected=None):
     return {
+        "corrected": corrected,
         "rule": RULE.id, "severity": severity, "table": "compounds", "compound_id": cv.ids[gi], "column": "tb",
         "observed": float(observed), "expected": None if expected is None else float(expected),
         "tolerance": None if tolerance is None else float(tolerance), "suggestion": suggestion or fallback,

@@ -7,8 +7,8 @@ Why it matters
     The liquid-vapor saturation curve ends at the critical point: above tc
     there is no vapor pressure. A point beyond it is either a wrong point
     (a temperature in the wrong scale, a supercritical measurement filed as
-    saturation data) or a wrong tc or pc. When most of a compound's points
-    lie above tc, tc itself is blamed in one finding instead of flagging
+    saturation data) or a wrong tc or pc. When at least ``blame_tc_share``
+    of a compound's points (default: half) lie above tc, tc itself is blamed in one finding instead of flagging
     every point.
 
 Method
@@ -74,12 +74,13 @@ ORDER BY b.compound_id, b.t
 """
 
 
-def _tc_slip(tc: float, t_max: float) -> str | None:
+def _tc_slip(tc: float, t_max: float) -> tuple[str | None, float | None]:
+    """A temperature-scale slip of tc that would put it above every point: (suggestion, corrected tc)."""
     for what, convert in TEMPERATURE_SLIPS:
         fixed = float(convert(np.float64(tc)))
         if fixed > t_max and 0.3 < t_max / fixed:
-            return f"{what} corrected tc {fixed:.6g} K would lie above every point"
-    return None
+            return f"{what}? corrected tc {fixed:.6g} K would lie above every point", fixed
+    return None, None
 
 
 def check(db, params) -> list[Finding]:
@@ -95,11 +96,12 @@ def check(db, params) -> list[Finding]:
             if rec.compound_id in blamed_tc:
                 continue
             blamed_tc.add(rec.compound_id)
+            suggestion, corrected = _tc_slip(rec.tc, rec.t_max)
             findings.append(
                 Finding(
                     rule=RULE.id, severity=RULE.severity, table="compounds", compound_id=rec.compound_id,
                     column="tc", observed=float(rec.tc), expected=f"> {rec.t_max:.6g}", tolerance=margin,
-                    row=int(rec.c_row), source=rec.c_source, suggestion=_tc_slip(rec.tc, rec.t_max),
+                    row=int(rec.c_row), source=rec.c_source, suggestion=suggestion, corrected=corrected,
                     reference="highest vapor-pressure point of the compound",
                     message=(f"{rec.n_above} of {rec.n_points} vapor-pressure points lie above tc = {rec.tc:.6g} K "
                              f"(up to {rec.t_max:.6g} K): tc is likely wrong"),

@@ -40,9 +40,9 @@ Parameters
         The bands are raised to this power for Antoine and Clausius-Clapeyron fits.
 
 Example finding
-    ``the Antoine fit of 8 points gives 3.02e+06 Pa at tc = 526.05 K, 0.62x
-    pc = 4.895e+06 Pa; it reaches pc at 561.2 K`` with suggestion
-    ``tc: transposed digits? 562.05 K``
+    ``the Riedel fit of 8 points (up to Tr = 0.98) gives 3.116e+06 Pa at
+    tc = 526.05 K, 0.64x pc = 4.895e+06 Pa; it reaches pc at 560.245 K``
+    with suggestion ``tc: transposed digits? 562.05 K``
 
 References
     1. Poling, Prausnitz, O'Connell, The Properties of Gases and Liquids,
@@ -98,19 +98,20 @@ def check(db, params):
         return None
     rows = []
     t_reach = free.t_at(cv.pc[gsel], gsel)
-    p_text, _ = pressure_slip(cv.pc[gsel], p_tc)
+    p_text, p_fixed = pressure_slip(cv.pc[gsel], p_tc)
     t_text, t_fixed = temperature_slip(cv.tc[gsel], t_reach, abs_tol=2.0)
     for j in np.nonzero(bad)[0]:
         gi = gsel[j]
-        column, suggestion = "pc", None
+        column, suggestion, corrected = "pc", None, None
         if p_text[j]:
-            suggestion = f"pc: {p_text[j]} corrected pc {cv.pc[gi] / (cv.pc[gi] / p_tc[j]):.6g} Pa"
+            corrected = float(p_fixed[j])
+            suggestion = f"pc: {p_text[j]} corrected pc {p_fixed[j]:.6g} Pa"  # the stored pc over the unit factor
         elif t_text[j]:
-            column, suggestion = "tc", f"tc: {t_text[j]} corrected tc {t_fixed[j]:.6g} K"
+            column, suggestion, corrected = "tc", f"tc: {t_text[j]} corrected tc {t_fixed[j]:.6g} K", float(t_fixed[j])
         elif np.isfinite(t_reach[j]):
             near = [v for v in transposed_digit_variants(cv.tc[gi]) if abs(v - t_reach[j]) < 0.01 * t_reach[j]]
             if near:
-                column, suggestion = "tc", f"tc: transposed digits? {near[0]:.6g} K"
+                column, suggestion, corrected = "tc", f"tc: transposed digits? {near[0]:.6g} K", float(near[0])
         severity = "error" if (ratio[j] < error_low[j] or ratio[j] > error_high[j]) else "warning"
         form = FORM_TITLES.get(FORMS[free.form[gi]], "free")
         reach_text = f"; it reaches pc at {t_reach[j]:.6g} K" if np.isfinite(t_reach[j]) else ""
@@ -120,6 +121,7 @@ def check(db, params):
             "expected": float(p_tc[j]) if column == "pc" else (float(t_reach[j]) if np.isfinite(t_reach[j]) else None),
             "tolerance": f"p(tc)/pc in [{warn_low[j]:.3g}, {warn_high[j]:.3g}]",
             "suggestion": suggestion or "tc or pc does not suit the points near the critical point; check both",
+            "corrected": corrected,
             "reference": f"{form} fit of {int(free.n_points[gi])} points extrapolated to tc",
             "message": (f"the {form} fit of {int(free.n_points[gi])} points (up to Tr = {reach[gi]:.2f}) gives "
                         f"{p_tc[j]:.4g} Pa at tc = {cv.tc[gi]:.6g} K, {ratio[j]:.2f}x pc = {cv.pc[gi]:.4g} Pa{reach_text}"),

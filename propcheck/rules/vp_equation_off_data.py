@@ -28,8 +28,10 @@ Parameters
         Median |ln p| misfit from which a finding is an error.
 
 Example finding
-    ``antoine equation (row 3): 0.0075x the 8 points (median); coefficients
-    fit p in mmHg, T in degC, log 10`` with suggestion ``p_unit mmHg (declared Pa); t_unit degC (declared K)``
+    ``antoine equation (row 3) gives 0.0075x the 8 points in its range
+    (median; misfit 4.89 in ln p)`` with suggestion ``coefficients fit
+    p_unit mmHg (declared Pa)`` (coefficients fitted for mmHg, declared as
+    Pa: every pressure 133.322 times too small)
 
 References
     1. Poling, Prausnitz, O'Connell, The Properties of Gases and Liquids,

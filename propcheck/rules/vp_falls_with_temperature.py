@@ -22,8 +22,9 @@ Method
     (or, at an end of the series, the two beyond the pair); that line gives
     the expected value. With too few neighbours, the earlier point is blamed
     when the later one still exceeds the point before the pair. A factor between observed
-    and expected that matches a unit (1000, 1e5, 1e6, 101325, 133.322, 6894.76)
-    is named in ``suggestion``. Two points less than ``same_t_tolerance``
+    and expected that matches a unit (1000, 1e5, 1e6, 101325, 133.322, 6894.76,
+    100, and 10 or 0.1 for bar/MPa mix-ups) is named in ``suggestion``, the
+    corrected value also in ``corrected``. Two points less than ``same_t_tolerance``
     apart that differ by more than ``same_t_relative_spread`` give a warning.
 
 Parameters
@@ -211,6 +212,7 @@ def _drops(d: pd.DataFrame) -> list[Finding]:
                 tolerance=float(rec.allowed), row=int(row),
                 source=rec.source_a if blame_a.iloc[i] else rec.source_b,
                 suggestion=(f"{text[i]} corrected {corrected[i]:.6g} Pa" if text[i] else None),
+                corrected=float(corrected[i]) if text[i] else None,
                 reference="ln p linear in 1/T between neighbouring points (Clausius-Clapeyron)" if exp else None,
                 message=message,
             )

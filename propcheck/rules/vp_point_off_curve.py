@@ -22,9 +22,11 @@ Method
     (``min_residual_low_p`` below ``low_p_limit``, where data are far less
     certain). Residuals beyond ``error_residual`` are errors, smaller ones
     warnings. A residual matching a unit factor (1000, 1e5, 1e6, 101325,
-    133.322, 6894.76) is named in ``suggestion`` with the corrected pressure;
-    a temperature whose curve value is off by a temperature-scale slip
-    (degC or degF stored as K) is named with the corrected temperature.
+    133.322, 6894.76, 100, and 10 or 0.1 for bar/MPa mix-ups) is named in
+    ``suggestion`` with the corrected pressure (also in ``corrected``); a
+    temperature whose curve value is off by a temperature-scale slip (degC
+    or degF stored as K) is named with the corrected temperature (in the
+    suggestion only: the finding's column is p).
     Where the Wagner form is used, the point must also lie off the free
     (Riedel or Antoine) fit: a point that only the anchored curve misses
     points at tc or pc instead. Series found scaled by ``vp-series-scaled``
@@ -138,6 +140,8 @@ def check(db, params):
         "rule": RULE.id, "severity": severity, "table": "vapor_pressure", "compound_id": cv.ids[g],
         "column": "p", "t": cv.t[idx], "observed": cv.p[idx], "expected": expected,
         "tolerance": np.expm1(threshold_at), "suggestion": [s or None for s in suggestion],
+        # a repair of p (the finding's column); a temperature slip is named in the suggestion only
+        "corrected": np.where(p_text != "", p_fixed, np.nan),
         "reference": [cv.describe(gi) for gi in g], "message": messages, "row": cv.row[idx],
         "source": cv.point_sources(cv.row[idx]),
     })

@@ -17,8 +17,12 @@ Method
     series is compared with the logarithms of the usual unit factors (1e-3
     kPa, 1e-5 bar, 1e-6 MPa, 1/101325 atm, 1/133.322 mmHg, 1/6894.76 psi, ...).
     A matching factor is an error when the series' own curve at tb also
-    misses 101.325 kPa by the same factor (or tb is unknown); a factor seen
-    by only one of the two is a warning.
+    misses 101.325 kPa by the same factor, a warning when it misses it by
+    another amount or tb is unknown (then a wrong tc, pc or omega would look
+    the same). A series whose curve reaches 101.325 kPa at the stored tb
+    agrees with tb: it is not judged scaled (a wrong tc, pc or omega is the
+    likelier cause, left to the rules on those), and the other curve rules
+    judge it as usual.
 
 Parameters
     factor_tolerance
@@ -71,11 +75,11 @@ def check(db, params):
         tb_log = np.log(at_tb / 101325.0)
     tb_agrees = np.abs(tb_log - np.log(factor)) < np.log1p(params["factor_tolerance"])
     tb_known = np.isfinite(tb_log)
-    severity = np.where(tb_agrees | ~tb_known, "error", "warning")
+    severity = np.where(tb_agrees & tb_known, "error", "warning")
     rows = []
     for i, gi in enumerate(g):
         tb_text = (f"; its curve gives {at_tb[i]:.4g} Pa at tb = {cv.tb[gi]:.6g} K instead of 101325 Pa"
-                   if tb_known[i] else "; tb is unknown")
+                   if tb_known[i] else "; tb is unknown, so a wrong tc, pc or omega would look the same")
         rows.append({
             "rule": RULE.id, "severity": severity[i], "table": "vapor_pressure", "compound_id": cv.ids[gi],
             "column": "p", "observed": float(np.exp(cv.cs_log_ratio[gi])), "expected": 1.0,

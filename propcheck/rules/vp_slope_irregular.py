@@ -3,9 +3,10 @@
 What it checks
     Along each compound's points (sorted by T, the fit's rejected points
     left out), the local slope psi = -d ln p / d(1/T) between neighbours:
-    it must be positive, and its variation with T must have the single
-    shape of a real curve: falling, then (near the critical point) rising
-    through one minimum, never a local maximum or a second minimum.
+    its variation with T must have the single shape of a real curve:
+    falling, then (near the critical point) rising through one minimum,
+    never a local maximum or a second minimum. (That psi is positive, p
+    rising with T, is vp-falls-with-temperature's check.)
 
 Why it matters
     A series whose local slopes zigzag or jump mixes sources with different
@@ -42,8 +43,10 @@ Parameters
         Robust residual scale (ln p) below which alternation is not worth a finding.
 
 Example finding
-    ``the slope of ln p against 1/T rises then falls near 400 K (4120 K, 4380 K,
-    4090 K): mixed sources or a temperature-scale slip?``
+    ``the slope -d ln p/d(1/T) of the 12 points changes direction
+    irregularly from 400 K (slopes 4120, 4380, 4090 K): a real curve has
+    one minimum`` with suggestion ``mixed sources or a block of points on
+    another temperature scale?``
 
 References
     1. W. Waring, Ind. Eng. Chem. 46, 762 (1954).

@@ -57,5 +57,7 @@ def test_rule_case(rule_id, case, tmp_path):
             assert exp["suggestion_contains"] in (rec["suggestion"] or ""), rec
         if "expected" in exp:
             assert float(rec["expected"]) == pytest.approx(exp["expected"], rel=exp.get("rtol", 1e-3)), rec
+        if "corrected" in exp:  # the repair also goes to the finding's corrected field (corrections.csv)
+            assert rec["corrected"] is not None and float(rec["corrected"]) == pytest.approx(exp["corrected"], rel=1e-6), rec
         if "message_contains" in exp:
             assert exp["message_contains"] in rec["message"], rec
