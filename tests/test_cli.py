@@ -65,6 +65,23 @@ def test_clean_database_exits_0(run_cli, tmp_path):
     assert result.code == 0 and "PASS" in result.out
 
 
+def test_report_files_readable_as_the_umask_allows(run_cli, tmp_path):
+    """Report files get 0666 less the umask, like any new file, not a temporary file's 0600."""
+    import os
+    import stat
+
+    folder = write_db(tmp_path / "db", [{"compound_id": "C6", "name": "n-hexane"}])
+    old = os.umask(0o022)  # the usual umask (common practice)
+    try:
+        assert run_cli("check", folder, "--out", tmp_path / "out", "--quiet").code == 0
+    finally:
+        os.umask(old)
+    files = sorted((tmp_path / "out").iterdir())
+    assert {f.name for f in files} >= {"findings.csv", "findings.json", "summary.md", "report.html", "junit.xml"}
+    for f in files:
+        assert stat.S_IMODE(f.stat().st_mode) == 0o644, f.name
+
+
 def test_terminal_summary_on_sample_db(run_cli, tmp_path):
     result = run_cli("check", SAMPLE_DB, "--out", tmp_path / "out")
     assert result.code == 1

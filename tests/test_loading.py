@@ -120,6 +120,24 @@ def test_csv_source_unchanged(tmp_path, run_cli):
     assert sorted(p.name for p in folder.iterdir()) == ["compounds.csv"]
 
 
+def test_mapping_beside_a_database_file_is_used(tmp_path):
+    """propcheck.toml in the folder of a database file is read, as for a folder of CSV files."""
+    folder = tmp_path / "delivery"
+    folder.mkdir()
+    path = folder / "vendor.duckdb"
+    con = duckdb.connect(str(path))
+    # n-hexane Tc 234.45 degC = 507.6 K (IUPAC; exact conversion)
+    con.execute("CREATE TABLE chem_master AS SELECT 'C6' AS ID, 'n-hexane' AS Chemical, 234.45 AS Tcrit_C")
+    con.close()
+    (folder / "propcheck.toml").write_text(
+        '[compounds]\ntable = "chem_master"\n[compounds.columns]\ncompound_id = "ID"\nname = "Chemical"\n'
+        'tc = "Tcrit_C"\n[compounds.units]\ntc = "degC"\n'
+    )
+    db = load_database(str(path))
+    assert _compounds(db)["tc"][0] == pytest.approx(507.6, abs=1e-9)
+    assert any("propcheck.toml" in note for note in db.notes)
+
+
 def test_mapping_renames_and_converts_units(tmp_path):
     folder = tmp_path / "delivery"
     folder.mkdir()

@@ -23,7 +23,10 @@ LARGE_SOURCE_BYTES = 100 * 2**20  # sources from this size get a working databas
 
 def load_database(source: str, mapping_path: str | None = None) -> Database:
     """Read ``source`` (folder, DuckDB/SQLite/Excel file, PostgreSQL URL) into a new in-memory database."""
-    data_dir = Path(source) if not source.startswith(("postgresql://", "postgres://")) and Path(source).is_dir() else None
+    data_dir = None  # where a propcheck.toml beside the data is looked for: the folder, or a file's folder
+    if not source.startswith(("postgresql://", "postgres://")):
+        path = Path(source)
+        data_dir = path if path.is_dir() else (path.parent if path.is_file() else None)
     mapping = read_mapping(mapping_path, data_dir)
     con = duckdb.connect(":memory:")
     con.execute("SET enable_progress_bar = false")  # propcheck reports its own progress

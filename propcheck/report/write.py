@@ -27,12 +27,30 @@ WRITERS = {
 }
 
 
+def _umask() -> int:
+    """The process's umask; read from /proc where it can be, without changing it even briefly."""
+    try:
+        for line in Path("/proc/self/status").read_text().splitlines():
+            if line.startswith("Umask:"):
+                return int(line.split()[1], 8)
+    except (OSError, ValueError):
+        pass
+    mask = os.umask(0o022)
+    os.umask(mask)
+    return mask
+
+
 def atomic_write(path: Path, text: str) -> None:
-    """Write ``text`` to a temporary file beside ``path``, then rename it over ``path``."""
+    """Write ``text`` to a temporary file beside ``path``, then rename it over ``path``.
+
+    The file gets the permissions of any new file (0666 less the umask), not the
+    owner-only 0600 of a temporary file, so CI jobs and colleagues can read it.
+    """
     fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", dir=path.parent)
     try:
         with os.fdopen(fd, "w", encoding="utf-8", newline="") as handle:
             handle.write(text)
+        os.chmod(tmp, 0o666 & ~_umask())
         os.replace(tmp, path)
     except BaseException:
         Path(tmp).unlink(missing_ok=True)
