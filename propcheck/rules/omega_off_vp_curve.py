@@ -46,6 +46,7 @@ import pandas as pd
 from propcheck.curves import curves
 from propcheck.physics.vapor_pressure import omega_from_psat
 from propcheck.rules.base import RuleInfo
+from propcheck.rules.vp_curve_misses_critical_point import misses_critical_point
 
 RULE = RuleInfo(
     id="omega-off-vp-curve",
@@ -65,16 +66,10 @@ RULE = RuleInfo(
 def _critical_point_in_doubt(db, cv) -> np.ndarray:
     """Compounds whose curve does not reach (tc, pc): omega from them would blame the wrong column."""
     pack = db.cache.get("pack")
-    doubt = np.zeros(len(cv.ids), dtype=bool)
     if pack is None or not pack.enabled("vp-curve-misses-critical-point"):
-        return doubt
-    settings = pack.params("vp-curve-misses-critical-point")
-    gsel, free = cv.free_fit_near_critical(settings["min_tr"])
-    if free is None:
-        return doubt
-    ratio = np.exp(free.ln_p(cv.tc[gsel], gsel)) / cv.pc[gsel]
-    doubt[gsel] = np.isfinite(ratio) & ((ratio < settings["warn_low"]) | (ratio > settings["warn_high"]))
-    return doubt
+        return np.zeros(len(cv.ids), dtype=bool)
+    # exactly the compounds that rule reports (same bands, widened for the shorter forms)
+    return misses_critical_point(cv, pack.params("vp-curve-misses-critical-point"))
 
 
 def check(db, params):

@@ -79,6 +79,25 @@ RULE = RuleInfo(
 )
 
 
+def _bands(free, gsel, params, which: str):
+    """The (low, high) band of p(tc)/pc per compound; Antoine and Clausius-Clapeyron
+    extrapolate less well than Riedel, so their bands are widened."""
+    power = np.where(free.form[gsel] == RIEDEL, 1.0, params["short_form_power"])
+    return params[f"{which}_low"] ** power, params[f"{which}_high"] ** power
+
+
+def misses_critical_point(cv, params) -> np.ndarray:
+    """Per compound: True where this rule finds the curve off (tc, pc) (its warning band)."""
+    out = np.zeros(len(cv.ids), dtype=bool)
+    gsel, free = cv.free_fit_near_critical(params["min_tr"])
+    if free is None:
+        return out
+    ratio = np.exp(free.ln_p(cv.tc[gsel], gsel)) / cv.pc[gsel]
+    low, high = _bands(free, gsel, params, "warn")
+    out[gsel] = np.isfinite(ratio) & ((ratio < low) | (ratio > high))
+    return out
+
+
 def check(db, params):
     cv = curves(db)
     if cv is None:
@@ -89,10 +108,8 @@ def check(db, params):
     reach = cv.fit.t_max / cv.tc
     p_tc = np.exp(free.ln_p(cv.tc[gsel], gsel))
     ratio = p_tc / cv.pc[gsel]
-    # Antoine and Clausius-Clapeyron extrapolate less well than Riedel: their bands are widened
-    power = np.where(free.form[gsel] == RIEDEL, 1.0, params["short_form_power"])
-    warn_low, warn_high = params["warn_low"] ** power, params["warn_high"] ** power
-    error_low, error_high = params["error_low"] ** power, params["error_high"] ** power
+    warn_low, warn_high = _bands(free, gsel, params, "warn")
+    error_low, error_high = _bands(free, gsel, params, "error")
     bad = np.isfinite(ratio) & ((ratio < warn_low) | (ratio > warn_high))
     if not bad.any():
         return None
