@@ -19,6 +19,13 @@ Method
     vapor-pressure points is reported with its corrected value (unit slips
     are tried first: they are the commoner clerical error).
     Without a repair the finding names tb when tb >= tc and tm otherwise.
+    When tb lies below tm and the stored tm agrees with the reference data
+    (the median of the independent sources), tm is not blamed: the stored
+    tb is then a sublimation temperature (carbon dioxide: 194.67 K at 1 atm,
+    below its triple point, 216.59 K), and a compound that sublimes at 1 atm
+    has no normal boiling point; unless a slip of tb restores the order, or
+    Lee-Kesler from tc, pc, omega puts the liquid's vapor pressure at tm
+    below 1 atm (then the compound cannot sublime at 1 atm).
 
 Parameters
     guldberg_band
@@ -44,6 +51,7 @@ import pandas as pd
 
 from propcheck.findings import Finding
 from propcheck.physics.unit_slips import TEMPERATURE_SLIPS
+from propcheck.physics.vapor_pressure import P_ATM, lee_kesler_psat
 from propcheck.rules.base import RuleInfo
 
 RULE = RuleInfo(
@@ -72,8 +80,21 @@ def _in_band(tb, tc, band):
     return ~(np.isfinite(tb) & np.isfinite(tc)) | ((ratio >= band[0]) & (ratio <= band[1]))
 
 
+def _reference_tm(db, rows: np.ndarray) -> np.ndarray:
+    """The reference median of tm for compounds rows ``rows`` (NaN where none or no reference rule runs)."""
+    from propcheck.diagnose import get_context
+
+    ctx = get_context(db)
+    ref = ctx.reference.get("tm")
+    if ref is None:
+        return np.full(len(rows), np.nan)
+    position = pd.Series(np.arange(len(ctx.frame)), index=ctx.frame["_row"].to_numpy())
+    at = position.reindex(rows).to_numpy(dtype=float)
+    return np.where(np.isfinite(at), ref[np.nan_to_num(at).astype(int)], np.nan)
+
+
 def check(db, params) -> list[Finding]:
-    c = db.df("SELECT _row AS c_row, compound_id, source, tm, tb, tc FROM compounds")
+    c = db.df("SELECT _row AS c_row, compound_id, source, tm, tb, tc, pc, omega FROM compounds")
     t = {k: c[k].to_numpy(dtype=float) for k in ("tm", "tb", "tc")}
     bad = ~_ordered(t["tm"], t["tb"], t["tc"])
     if not bad.any():
@@ -103,6 +124,17 @@ def check(db, params) -> list[Finding]:
     found = np.isfinite(best)
     swap = ~found & _ordered(t["tm"], t["tc"], t["tb"]) & _in_band(t["tc"], t["tb"], band) & (t["tb"] >= t_max)
     column[swap], fixed[swap], why[swap] = "tb", t["tc"][swap], "tb and tc swapped"
+    # tb below a tm the reference data confirm: a sublimation point filed as tb, not a wrong tm
+    only_mb = (np.isfinite(t["tm"]) & np.isfinite(t["tb"]) & (t["tm"] >= t["tb"])
+               & _ordered(np.full(n, np.nan), t["tb"], t["tc"]) & _ordered(t["tm"], np.full(n, np.nan), t["tc"]))
+    ref_tm = _reference_tm(db, c["c_row"].to_numpy()) if only_mb.any() else np.full(n, np.nan)
+    sublimes = only_mb & (np.abs(t["tm"] - ref_tm) <= np.maximum(1.0, 0.005 * t["tm"]))
+    sublimes &= ~(found & (column == "tb"))  # a slip of tb that restores the order explains it better
+    # and the liquid must boil above 1 atm at tm (triple point above 1 atm), where tc, pc, omega tell
+    with np.errstate(all="ignore"):
+        p_tm = lee_kesler_psat(t["tm"], t["tc"], c["pc"].to_numpy(float), c["omega"].to_numpy(float))
+    sublimes &= ~np.isfinite(p_tm) | (p_tm > P_ATM)
+    column[sublimes], fixed[sublimes], why[sublimes] = "tb", np.nan, "sublimes"
     findings = []
     for i, rec in enumerate(c.itertuples(index=False)):
         tm, tb, tc = t["tm"][i], t["tb"][i], t["tc"][i]
@@ -116,7 +148,11 @@ def check(db, params) -> list[Finding]:
         col = column[i]
         message = "; ".join(parts) + f"; {col} is likely wrong"
         suggestion = None
-        if why[i]:
+        if why[i] == "sublimes":
+            message = "; ".join(parts) + f"; tm agrees with the reference data ({ref_tm[i]:.6g} K)"
+            suggestion = ("a sublimation point filed as tb? a compound whose triple point lies above 1 atm sublimes "
+                          "and has no normal boiling point: leave tb empty")
+        elif why[i]:
             suggestion = f"{why[i]} corrected {col} {fixed[i]:.6g} K" if why[i] != "tb and tc swapped" else "tb and tc swapped?"
         findings.append(
             Finding(
@@ -124,7 +160,8 @@ def check(db, params) -> list[Finding]:
                 observed=float(t[col][i]), expected=(float(fixed[i]) if np.isfinite(fixed[i]) else None),
                 row=int(rec.c_row), source=rec.source, suggestion=suggestion,
                 corrected=(float(fixed[i]) if np.isfinite(fixed[i]) else None),
-                reference="phase order tm < tb < tc; Guldberg tb/tc band" if why[i] else "phase order tm < tb < tc",
+                reference=("phase order tm < tb < tc; reference data (tm)" if why[i] == "sublimes"
+                           else "phase order tm < tb < tc; Guldberg tb/tc band" if why[i] else "phase order tm < tb < tc"),
                 message=message,
             )
         )
