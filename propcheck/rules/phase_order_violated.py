@@ -35,8 +35,8 @@ Parameters
         tb/tc lies nearest to it is proposed.
 
 Example finding
-    ``tb = 341.87 K is not below tc = 234.45 K; tc is likely wrong
-    (degC entered as K? corrected 507.6 K)``
+    ``tb = 341.87 K is not below tc = 234.45 K; tc is likely wrong`` with
+    suggestion ``degC entered as K? corrected tc 507.6 K``
 
 References
     1. Poling, Prausnitz, O'Connell, The Properties of Gases and Liquids,
@@ -153,7 +153,7 @@ def check(db, params) -> list[Finding]:
             suggestion = ("a sublimation point filed as tb? a compound whose triple point lies above 1 atm sublimes "
                           "and has no normal boiling point: leave tb empty")
         elif why[i]:
-            suggestion = f"{why[i]} corrected {col} {fixed[i]:.6g} K" if why[i] != "tb and tc swapped" else "tb and tc swapped?"
+            suggestion = f"{why[i]}? corrected {col} {fixed[i]:.6g} K" if why[i] != "tb and tc swapped" else "tb and tc swapped?"
         findings.append(
             Finding(
                 rule=RULE.id, severity=RULE.severity, table="compounds", compound_id=rec.compound_id, column=col,
