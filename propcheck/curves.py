@@ -10,6 +10,7 @@ caches the result on the :class:`~propcheck.database.Database`.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 
@@ -49,10 +50,17 @@ class Curves:
     series_factor: np.ndarray  # (G,) unit factor the whole series is off by, NaN if none
     series_slip: np.ndarray  # (G,) text naming that slip, "" if none
 
+    @cached_property
+    def set_aside(self) -> np.ndarray:
+        """(G,) points each compound's robust fit gave no weight."""
+        return np.bincount(self.group, self.fit.weight == 0, minlength=len(self.ids)).astype(int)
+
     def describe(self, g) -> str:
-        """'Antoine fit of 8 points' for compound index g."""
+        """'Antoine fit of 8 points (robust)' for compound index g, naming points the fit set aside."""
         form = FORMS[self.fit.form[g]]
-        return f"{FORM_TITLES.get(form, form)} fit of {int(self.fit.n_points[g])} points (robust)"
+        aside = int(self.set_aside[g]) if self.fit.form[g] > 0 else 0
+        note = f"; {aside} point{'s' if aside > 1 else ''} set aside" if aside else ""
+        return f"{FORM_TITLES.get(form, form)} fit of {int(self.fit.n_points[g])} points (robust{note})"
 
     def index(self) -> dict[str, int]:
         return {cid: i for i, cid in enumerate(self.ids)}

@@ -78,7 +78,7 @@ def test_drawn_curve_follows_iapws_water_despite_a_unit_slip(tmp_path):
     data = build_report_data(run_check(str(write_db(tmp_path / "db", [compound], points))))
     (panel,) = [x for x in data.panels if x.compound_id == "water"]
     assert panel.flagged.tolist() == [i == 4 for i in range(len(t))]
-    assert panel.curve_label.endswith("fit of 9 points (robust)")
+    assert panel.curve_label.endswith("fit of 9 points (robust; 1 point set aside)")  # the slipped point
     # the drawn curve follows the published values, not the slip, from 300 K up to the critical point
     reference = np.array([iapws97._PSat_T(x) * 1e6 for x in np.minimum(panel.curve_t, 647.096)])
     np.testing.assert_allclose(np.exp(panel.curve_ln_p), reference, rtol=0.02)
