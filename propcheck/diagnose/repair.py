@@ -134,16 +134,21 @@ def evidence_z(ctx: Context, rows: np.ndarray, v: dict[str, np.ndarray]) -> dict
         z["phase order"] = order
         ratio = v["tb"] / v["tc"]
         lo, hi = e["guldberg_band"]
-        z["Guldberg tb/tc"] = np.where(ratio < lo, 1 + (lo - ratio) / 0.02, np.where(ratio > hi, 1 + (ratio - hi) / 0.02, 0.0))
+        # NaN where a check has nothing to judge (a missing value): the evidence text then claims nothing
+        z["Guldberg tb/tc"] = np.where(ratio < lo, 1 + (lo - ratio) / 0.02,
+                                       np.where(ratio > hi, 1 + (ratio - hi) / 0.02, np.where(np.isfinite(ratio), 0.0, np.nan)))
         zc = v["pc"] * v["vc"] / (R * v["tc"])
         lo, hi = e["zc_band"]
-        z["Zc band"] = np.where(zc < lo, 1 + (lo - zc) / 0.01, np.where(zc > hi, 1 + (zc - hi) / 0.01, 0.0))
+        z["Zc band"] = np.where(zc < lo, 1 + (lo - zc) / 0.01, np.where(zc > hi, 1 + (zc - hi) / 0.01, np.where(np.isfinite(zc), 0.0, np.nan)))
         z["stored zc"] = np.abs(v["zc"] - zc) / e["zc_match"]
         lo, hi = e["omega_range"]
         z["omega range"] = np.where((v["omega"] < lo) | (v["omega"] > hi), 2.0, np.where(np.isfinite(v["omega"]), 0.0, np.nan))
         tol = np.where(_polar(ctx, rows), e["lk_tb"] * e["lk_polar_factor"], e["lk_tb"])
         z["Lee-Kesler tb"] = np.abs(v["tb"] - lee_kesler_tb(v["tc"], v["pc"], v["omega"])) / tol
-        z["vapor-pressure points below tc"] = np.where(np.isfinite(v["tc"]), np.where(v["tc"] < ctx.vp_tmax[rows], _HARD, 0.0), np.nan)
+        # only for compounds that have points (vp_tmax is -inf without any): no claim about points that do not exist
+        has_points = np.isfinite(ctx.vp_tmax[rows])
+        z["vapor-pressure points below tc"] = np.where(np.isfinite(v["tc"]) & has_points,
+                                                       np.where(v["tc"] < ctx.vp_tmax[rows], _HARD, 0.0), np.nan)
         z["tb from vapor-pressure points"] = np.abs(v["tb"] - ctx.vp_tb[rows]) / ctx.vp_tb_tol[rows]
         z["omega from vapor-pressure curve"] = np.abs(v["omega"] - ctx.curve_omega(rows, v["tc"], v["pc"])) / ctx.curve_omega_tol
         m = v["molar_mass"]

@@ -106,6 +106,8 @@ def _notes(c: pd.DataFrame, valid, known) -> np.ndarray:
     why = np.where(c["cas"].isna(), "no CAS",
                    np.where(~valid, "CAS " + cas + " is not valid", "CAS " + cas + " is not in the identifier database"))
     by = c["matched_by"].to_numpy(dtype=object)
-    return np.where(by == "cas", "identified by CAS " + cas,
+    known_cas = np.asarray(known, dtype=bool)
+    return np.where((by == "cas") & known_cas, "identified by CAS " + cas,
+           np.where(by == "cas", "looked up by CAS " + cas + " (not in the identifier database)",
            np.where(by == "name", "identified by name '" + name + "' as CAS " + ref + " (" + why + ")",
-           np.where(by == "formula", "identified by formula " + formula + " alone as CAS " + ref, "not identified")))
+           np.where(by == "formula", "identified by formula " + formula + " alone as CAS " + ref, "not identified"))))

@@ -14,8 +14,10 @@ Method
     ``chemicals.identifiers.search_chemical`` on the CAS and on the name
     (PubChem-derived local database, no network). A warning when the CAS's
     formula differs from ``formula`` (Hill order compared as element
-    counts) or when ``name`` resolves to a different CAS; it says which
-    compound the CAS belongs to. Unknown CAS or names are not judged.
+    counts) and the name does not confirm the CAS, or when ``name``
+    resolves to a different CAS; it says which compound the CAS belongs to.
+    A formula that alone disagrees with a CAS its name confirms is left to
+    identity-mismatch. Unknown CAS or names are not judged.
 
 Parameters
     None.
@@ -76,8 +78,12 @@ def check(db, params) -> pd.DataFrame:
             continue
         name, formula = names.iloc[r], frame["formula"].iloc[r]
         named = by_name.get(name)
-        wrong_formula = bool(formula) and isinstance(formula, str) and parse_formula(formula) not in (None, parse_formula(meta.formula))
         wrong_name = named is not None and named.CASs != meta.CASs
+        # a formula off the CAS's is the formula's fault when the name confirms the CAS
+        # (identity-mismatch reports that); here only when nothing backs the CAS
+        name_confirms = named is not None and named.CASs == meta.CASs
+        wrong_formula = (not name_confirms and bool(formula) and isinstance(formula, str)
+                         and parse_formula(formula) not in (None, parse_formula(meta.formula)))
         if not (wrong_formula or wrong_name):
             continue
         message = f"{cas.iloc[r]} is the CAS of {meta.common_name} ({meta.formula}), not of {name}"

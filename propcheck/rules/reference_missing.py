@@ -2,7 +2,10 @@
 
 What it checks
     Compounds that the identifier database cannot identify (by CAS, name or
-    formula), and identified compounds that no reference source carries.
+    formula), identified compounds that no reference source carries, and
+    those for which the references carry only the molar mass (from the
+    identifier database), so that none of their other constants is
+    cross-checked.
 
 Why it matters
     The reference cross-checks say nothing about such compounds; a steward
@@ -42,11 +45,20 @@ RULE = RuleInfo(
 
 def check(db, params) -> list[Finding]:
     ident = session.identity(db)
-    covered = ident["row"].isin(session.constants(db)["key"])
+    constants = session.constants(db)
+    covered = ident["row"].isin(constants["key"]).to_numpy()
+    beyond_mass = ident["row"].isin(constants.loc[constants["property"] != "molar_mass", "key"]).to_numpy()
+    identified = ident["matched_by"].map(lambda m: isinstance(m, str)).to_numpy(dtype=bool)  # None/NaN: not
     findings = []
-    for rec in ident[ident["matched_by"].isna() | ~covered].itertuples(index=False):
-        if rec.matched_by is None:
-            message = "not identified (no valid, known CAS; name and formula unknown to the identifier database): not cross-checked"
+    for i in (~identified | ~beyond_mass).nonzero()[0]:  # loop over findings
+        rec = ident.iloc[i]
+        if not identified[i]:
+            shared = int(rec.get("formula_candidates", 0) or 0)
+            why = (f"name unknown to the identifier database, formula shared by {shared} known compounds" if shared > 1
+                   else "name and formula unknown to the identifier database")
+            message = f"not identified (no valid, known CAS; {why}): not cross-checked"
+        elif covered[i]:
+            message = f"{rec.note}, but the references carry only its molar mass: its other constants are not cross-checked"
         else:
             message = f"{rec.note}, but no reference source carries its constants: not cross-checked"
         findings.append(Finding(

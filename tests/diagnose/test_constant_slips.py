@@ -118,3 +118,16 @@ def test_corrections_csv_lists_each_repair_once(tmp_path, run_cli):
     assert [(f["compound_id"], f["column"]) for f in fixes] == [(row["compound_id"], "tc")]
     assert float(fixes[0]["proposed_value"]) == pytest.approx(507.6)
     assert float(fixes[0]["current_value"]) == pytest.approx(234.45)
+
+
+def test_evidence_names_only_checks_that_could_judge(tmp_path):
+    """Without vapor-pressure points or vc, the evidence claims no agreement with points or the Zc band."""
+    # n-hexane: IUPAC tc 507.6 K stored in degC (234.45), pc 3.025 MPa; CRC tb 341.87 K; omega 0.300 (Thol 2019)
+    rows = [{"compound_id": "C6", "name": "n-hexane", "cas": "110-54-3", "formula": "C6H14",
+             "tc": 234.45, "pc": 3025000.0, "omega": 0.300, "tb": 341.87}]
+    found = _run(tmp_path, rows)
+    diagnosed = found[found["suggestion"].fillna("").str.contains("restores")]
+    assert len(diagnosed), found[["rule", "suggestion"]].to_string()
+    for text in diagnosed["suggestion"]:
+        assert "corrected tc 507.6 K" in text
+        assert "vapor-pressure points" not in text and "Zc band" not in text, text
