@@ -16,6 +16,8 @@ import numpy as np
 import pandas as pd
 
 from propcheck.physics.atomic_weights import molar_mass, parse_formula
+
+POLAR_ELEMENTS = {"O", "N", "F", "S"}  # hydrogen bonding / strong dipoles (common practice)
 from propcheck.physics.family_trend import trend_outliers
 from propcheck.physics.vapor_pressure import P_ATM, omega_from_psat
 
@@ -48,6 +50,7 @@ class Context:
     formula_mass: np.ndarray
     carbon: np.ndarray
     family_code: np.ndarray  # -1: no family or not a series
+    polar: np.ndarray | None = None  # formula holds O, N, F or S atoms (Lee-Kesler tolerance widened)
     judged: dict[str, np.ndarray] = field(default_factory=dict)  # member may be judged for this column
     expected: dict[str, np.ndarray] = field(default_factory=dict)
     tolerance: dict[str, np.ndarray] = field(default_factory=dict)
@@ -140,13 +143,17 @@ def build_context(db, params: dict | None = None) -> Context:
     values = {c: (frame[c].to_numpy(dtype=float) if c in frame.columns else np.full(len(frame), np.nan)) for c in NUMERIC}
     formulas = frame["formula"].astype(object).where(frame["formula"].notna(), "")
     mass = molar_mass(formulas.tolist())
-    carbon = np.array([float((parse_formula(f) or {}).get("C", 0)) if f else 0.0 for f in formulas.unique()])
+    parsed = [parse_formula(f) or {} if f else {} for f in formulas.unique()]  # loop over distinct formulas
+    carbon = np.array([float(e.get("C", 0)) for e in parsed])
     carbon = pd.Series(carbon, index=formulas.unique()).reindex(formulas).to_numpy()
+    # polar for corresponding states: holds O, N, F or S atoms (element symbols, so Si, Sn, Ne, Na do not count)
+    polar = np.array([bool(POLAR_ELEMENTS & set(e)) for e in parsed], dtype=bool)
+    polar = pd.Series(polar, index=formulas.unique()).reindex(formulas).to_numpy(dtype=bool)
     family = frame["family"].astype(object).where(frame["family"].notna(), "").astype(str).str.strip().str.lower()
     not_series = {s.lower() for s in p["not_series"]}
     code_values, uniques = pd.factorize(family)
     code = np.where((family == "") | family.isin(not_series), -1, code_values)
-    ctx = Context(frame=frame, values=values, formula_mass=mass, carbon=carbon, family_code=code)
+    ctx = Context(frame=frame, values=values, formula_mass=mass, carbon=carbon, family_code=code, polar=polar)
     x = _family_x(frame, carbon, np.where(np.isfinite(values["molar_mass"]), values["molar_mass"], mass), code)
     ctx.x = x
     # irregular heads: the first members of some series are neither judged nor used as neighbours

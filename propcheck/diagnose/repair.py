@@ -115,8 +115,7 @@ class Diagnosis:
 
 
 def _polar(ctx: Context, rows: np.ndarray) -> np.ndarray:
-    formula = ctx.frame["formula"].astype(object).to_numpy()[rows]
-    return np.array([bool(f) and any(e in str(f) for e in ("O", "N", "F", "S")) for f in formula])
+    return ctx.polar[rows]
 
 
 def evidence_z(ctx: Context, rows: np.ndarray, v: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
@@ -206,6 +205,7 @@ def diagnose(ctx: Context, rows, columns, raw: dict[str, np.ndarray] | None = No
         cols = (cols,) if isinstance(cols, str) else tuple(cols)
         cand_cell.append(k); cand_row.append(r); cand_what.append(""); cand_col.append(cols[0])
         cand_val.append(base[cols[0]][r]); cand_extra.append({})
+        swapped = set()  # a swap of two tried columns is one repair, not two rivals
         for col in cols:
             value = base[col][r]
             if not np.isfinite(value) or col not in QUANTITY:
@@ -214,6 +214,9 @@ def diagnose(ctx: Context, rows, columns, raw: dict[str, np.ndarray] | None = No
                 cand_cell.append(k); cand_row.append(r); cand_what.append(what); cand_col.append(col)
                 cand_val.append(new); cand_extra.append({})
             for other in SWAPS.get(col, ()):
+                if frozenset((col, other)) in swapped:
+                    continue
+                swapped.add(frozenset((col, other)))
                 if np.isfinite(base[other][r]):
                     cand_cell.append(k); cand_row.append(r); cand_what.append(f"{col} and {other} swapped?")
                     cand_col.append(col); cand_val.append(base[other][r]); cand_extra.append({other: float(value)})

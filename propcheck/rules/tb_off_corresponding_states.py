@@ -75,9 +75,7 @@ def check(db, params) -> pd.DataFrame:
     ctx = get_context(db)
     v = ctx.values
     tb_lk = lee_kesler_tb(v["tc"], v["pc"], v["omega"])
-    formula = ctx.frame["formula"].astype(object).fillna("").astype(str)
-    polar = formula.str.contains("[ONFS]", regex=True).to_numpy()
-    scale = np.where(polar, params["polar_factor"], 1.0)
+    scale = np.where(ctx.polar, params["polar_factor"], 1.0)
     diff = np.abs(v["tb"] - tb_lk)
     bad = np.flatnonzero(np.isfinite(diff) & (diff > params["warn_k"] * scale))
     if len(bad) == 0:

@@ -131,3 +131,16 @@ def test_evidence_names_only_checks_that_could_judge(tmp_path):
     for text in diagnosed["suggestion"]:
         assert "corrected tc 507.6 K" in text
         assert "vapor-pressure points" not in text and "Zc band" not in text, text
+
+
+def test_polar_means_o_n_f_or_s_atoms_not_letters(tmp_path):
+    """The widened Lee-Kesler tolerance is for formulas with O, N, F or S atoms (common practice), by element."""
+    from propcheck.diagnose import get_context
+    from propcheck.load import load_database
+
+    formulas = {"SiCl4": False, "SnCl4": False, "Ne": False, "NaCl": False, "CH4": False,
+                "C2H6O": True, "NH3": True, "CHF3": True, "CS2": True, "SO2": True}
+    rows = [{"compound_id": f"X{i}", "name": f"compound {i}", "formula": f} for i, f in enumerate(formulas)]
+    ctx = get_context(load_database(str(write_db(tmp_path / "db", rows))))
+    got = dict(zip(ctx.frame["formula"], ctx.polar.tolist()))
+    assert got == formulas
