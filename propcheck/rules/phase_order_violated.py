@@ -12,12 +12,17 @@ Why it matters
 
 Method
     Phase order of a pure compound, Tt <= Tm < Tb < Tc (Poling et al.,
-    ch. 2). To point at the wrong column, each of tm, tb and tc is tried
-    with the usual temperature-scale slips (degC, degF, degR stored as K)
-    and then tb and tc swapped; a repair that restores the order, puts tb/tc
-    inside the Guldberg band and keeps tc above the compound's own
-    vapor-pressure points is reported with its corrected value (unit slips
-    are tried first: they are the commoner clerical error).
+    ch. 2). To point at the wrong column, the shared slip diagnosis
+    (``propcheck.diagnose``, as every rule on constants uses it) tries
+    tm, tb and tc with the usual slips and swaps and scores each repair
+    against the row's other evidence (Guldberg's band, Lee-Kesler, Zc, the
+    compound's own points, family trend, reference data); its best repair
+    that restores the order is reported with "likely" or "possibly". Where
+    it finds none, the rule's own trial is offered as "possibly": each of
+    tm, tb and tc with the temperature-scale slips (degC, degF, degR stored
+    as K), then tb and tc swapped, kept when it restores the order, puts
+    tb/tc inside the Guldberg band and keeps tc above the compound's own
+    vapor-pressure points.
     Without a repair the finding names tb when tb >= tc and tm otherwise.
     When tb lies below tm and the stored tm agrees with the reference data
     (the median of the independent sources), tm is not blamed: the stored
@@ -35,6 +40,7 @@ Parameters
         tb/tc lies nearest to it is proposed.
 
 Example finding
+    n-Hexane (tc 507.6 K IUPAC, tb 341.87 K CRC) with tc entered in degC:
     ``tb = 341.87 K is not below tc = 234.45 K; tc is likely wrong`` with
     suggestion ``degC entered as K? corrected tc 507.6 K``
 
@@ -49,6 +55,7 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
+from propcheck.diagnose import diagnose, get_context
 from propcheck.findings import Finding
 from propcheck.physics.unit_slips import TEMPERATURE_SLIPS
 from propcheck.physics.vapor_pressure import P_ATM, lee_kesler_psat
@@ -82,8 +89,6 @@ def _in_band(tb, tc, band):
 
 def _reference_tm(db, rows: np.ndarray) -> np.ndarray:
     """The reference median of tm for compounds rows ``rows`` (NaN where none or no reference rule runs)."""
-    from propcheck.diagnose import get_context
-
     ctx = get_context(db)
     ref = ctx.reference.get("tm")
     if ref is None:
@@ -91,6 +96,29 @@ def _reference_tm(db, rows: np.ndarray) -> np.ndarray:
     position = pd.Series(np.arange(len(ctx.frame)), index=ctx.frame["_row"].to_numpy())
     at = position.reindex(rows).to_numpy(dtype=float)
     return np.where(np.isfinite(at), ref[np.nan_to_num(at).astype(int)], np.nan)
+
+
+def _shared_diagnoses(db, rows: np.ndarray, ask: np.ndarray, t: dict) -> list:
+    """The shared slip diagnosis (tm, tb or tc) of each asked row, where its repair restores the order; else None."""
+    out = [None] * len(rows)
+    ctx = get_context(db)
+    position = pd.Series(np.arange(len(ctx.frame)), index=ctx.frame["_row"].to_numpy())
+    at = position.reindex(rows).to_numpy(dtype=float)
+    ask = ask & np.isfinite(at)
+    if not ask.any():
+        return out
+    picked = np.nonzero(ask)[0]
+    for i, diag in zip(picked, diagnose(ctx, at[ask].astype(int), [("tm", "tb", "tc")] * len(picked))):
+        if diag is None:
+            continue
+        trial = {k: np.array([v[i]]) for k, v in t.items()}
+        trial[diag.column] = np.array([diag.corrected])
+        for other, value in diag.others.items():
+            if other in trial:
+                trial[other] = np.array([value])
+        if _ordered(**trial)[0]:
+            out[i] = diag
+    return out
 
 
 def check(db, params) -> list[Finding]:
@@ -135,6 +163,7 @@ def check(db, params) -> list[Finding]:
         p_tm = lee_kesler_psat(t["tm"], t["tc"], c["pc"].to_numpy(float), c["omega"].to_numpy(float))
     sublimes &= ~np.isfinite(p_tm) | (p_tm > P_ATM)
     column[sublimes], fixed[sublimes], why[sublimes] = "tb", np.nan, "sublimes"
+    shared = _shared_diagnoses(db, c["c_row"].to_numpy(), ~sublimes, t)
     findings = []
     for i, rec in enumerate(c.itertuples(index=False)):
         tm, tb, tc = t["tm"][i], t["tb"][i], t["tc"][i]
@@ -146,14 +175,20 @@ def check(db, params) -> list[Finding]:
         if np.isfinite(tm) and np.isfinite(tc) and tm >= tc:
             parts.append(f"tm = {tm:.6g} K is not below tc = {tc:.6g} K")
         col = column[i]
-        message = "; ".join(parts) + f"; {col} is likely wrong"
+        message = "; ".join(parts) + f"; {col} is possibly wrong"
         suggestion = None
-        if why[i] == "sublimes":
+        diag = shared[i]
+        if diag is not None:  # the repair the shared slip diagnosis scores best, as every rule reports it
+            col, fixed[i], why[i] = diag.column, diag.corrected, "diagnosed"
+            message = "; ".join(parts) + f"; {col} is {diag.confidence} wrong"
+            suggestion = diag.suggestion(" K")
+        elif why[i] == "sublimes":
             message = "; ".join(parts) + f"; tm agrees with the reference data ({ref_tm[i]:.6g} K)"
             suggestion = ("a sublimation point filed as tb? a compound whose triple point lies above 1 atm sublimes "
                           "and has no normal boiling point: leave tb empty")
         elif why[i]:
-            suggestion = f"{why[i]}? corrected {col} {fixed[i]:.6g} K" if why[i] != "tb and tc swapped" else "tb and tc swapped?"
+            suggestion = ("possibly: " + (f"{why[i]}? corrected {col} {fixed[i]:.6g} K" if why[i] != "tb and tc swapped"
+                                          else "tb and tc swapped?"))
         findings.append(
             Finding(
                 rule=RULE.id, severity=RULE.severity, table="compounds", compound_id=rec.compound_id, column=col,
@@ -161,6 +196,7 @@ def check(db, params) -> list[Finding]:
                 row=int(rec.c_row), source=rec.source, suggestion=suggestion,
                 corrected=(float(fixed[i]) if np.isfinite(fixed[i]) else None),
                 reference=("phase order tm < tb < tc; reference data (tm)" if why[i] == "sublimes"
+                           else "phase order tm < tb < tc; repair scored by the slip diagnosis" if why[i] == "diagnosed"
                            else "phase order tm < tb < tc; Guldberg tb/tc band" if why[i] else "phase order tm < tb < tc"),
                 message=message,
             )
