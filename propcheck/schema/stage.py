@@ -184,9 +184,15 @@ def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
         elif check == "cas-check-digit":
             body = str(value).rsplit("-", 1)[0]
             digit = cas_check_digit(body)
+            named = _cas_of_name(frame.loc[row, "name"])
+            how = _cas_slip(str(value), named) if named else ""
+            suggestion = (f"{how}? the name gives CAS {named}" if how
+                          else f"the name gives CAS {named}" if named
+                          else "a mistyped or transposed digit; the check digit alone may also be wrong")
             new(check, row, "cas", f"{value} fails its check digit (digits before it give {digit})", observed=value,
-                expected=f"{body}-{digit}", reference="CAS check-digit rule (cas.org)",
-                suggestion="a mistyped or transposed digit; the check digit alone may also be wrong")
+                expected=named, reference="CAS check-digit rule (cas.org)"
+                + ("; name looked up in the identifier database carried by chemicals (offline)" if named else ""),
+                suggestion=suggestion)
         elif check == "cas-shared-by-ids":
             others = frame[(frame["cas"] == value) & (frame["_row"] != row)]
             names = ", ".join(f"{cid} ({name})" for cid, name in zip(others["compound_id"], others["name"]))
@@ -206,7 +212,7 @@ def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
             first_row, first_name = first.loc[cid, "_row"], first.loc[cid, "name"]
             new("duplicate-compound-id", row, "compound_id",
                 f"compound_id {cid} is used again (first at row {first_row}, {first_name!r}); this row is not checked",
-                observed=name)
+                observed=name)  # the duplicate row's name: what tells it apart (and keeps its finding_id stable)
     elif table == "compounds":  # still cannot check two rows under one key
         ids = frame["compound_id"]
         reject_rows.update(int(r) for r in frame[ids.notna() & ids.duplicated(keep="first")]["_row"])
@@ -216,6 +222,39 @@ def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
         for column in required:
             reject_rows.update(int(r) for r in frame[frame[column].isna()]["_row"])
     return findings, reject_rows, null_cells
+
+
+def _cas_of_name(name) -> str | None:
+    """The CAS the offline identifier database carried by chemicals gives ``name``; None if unknown."""
+    if not isinstance(name, str) or not name.strip():
+        return None
+    from chemicals.identifiers import search_chemical  # only when a check digit fails
+
+    try:
+        return search_chemical(name.strip()).CASs
+    except Exception:  # unknown to the database
+        return None
+
+
+def _cas_slip(stored: str, named: str) -> str:
+    """Name the clerical slip that turns CAS ``named`` into ``stored``, or "".
+
+    >>> _cas_slip("180-88-3", "108-88-3")
+    'transposed digits'
+    >>> _cas_slip("108-88-2", "108-88-3")
+    'wrong check digit'
+    """
+    a, b = stored.replace("-", ""), named.replace("-", "")
+    if len(a) != len(b) or a == b:
+        return ""
+    diff = [i for i in range(len(a)) if a[i] != b[i]]
+    if len(diff) == 2 and diff[1] == diff[0] + 1 and a[diff[0]] == b[diff[1]] and a[diff[1]] == b[diff[0]]:
+        return "transposed digits"
+    if diff == [len(a) - 1]:
+        return "wrong check digit"
+    if len(diff) == 1:
+        return "one digit mistyped"
+    return ""
 
 
 def _unit(table: str, column: str) -> str:
