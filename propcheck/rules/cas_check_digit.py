@@ -18,7 +18,10 @@ Parameters
     None.
 
 Example finding
-    ``compounds row 5, column cas: 110-45-3 fails its check digit (expected 110-45-?: 2)``
+    n-Hexane (110-54-3, CAS Registry) with two digits transposed:
+    ``compounds.csv row 6, column cas: 110-45-3 fails its check digit
+    (digits before it give 2)`` with suggestion ``transposed digits? the
+    name gives CAS 110-54-3``
 
 References
     1. CAS, "Check Digit Verification of CAS Registry Numbers", cas.org.

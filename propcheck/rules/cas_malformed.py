@@ -16,7 +16,8 @@ Parameters
     None.
 
 Example finding
-    ``compounds row 9, column cas: '110543' is not a CAS Registry Number (NNNNNNN-NN-N)``
+    n-Hexane (110-54-3) without its hyphens:
+    ``compounds.csv row 6, column cas: '110543' is not a CAS Registry Number (NNNNNNN-NN-N)``
 
 References
     1. CAS, "Check Digit Verification of CAS Registry Numbers", cas.org.

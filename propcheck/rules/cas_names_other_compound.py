@@ -23,8 +23,10 @@ Parameters
     None.
 
 Example finding
-    ``108-21-4 is the CAS of isopropyl acetate (C5H10O2), not of propyl
-    acetate (109-60-4)``
+    Propyl acetate (109-60-4) given isopropyl acetate's 108-21-4 (CAS
+    Registry): ``108-21-4 is the CAS of isopropyl acetate (C5H10O2), not of
+    propyl acetate (109-60-4)`` with suggestion ``possibly: CAS of
+    isopropyl acetate; propyl acetate is 109-60-4``
 
 References
     1. C. Bell et al., chemicals (Python library), identifiers module

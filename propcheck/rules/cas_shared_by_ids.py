@@ -16,7 +16,9 @@ Parameters
     None.
 
 Example finding
-    ``compounds row 40, column cas: 71-43-2 is also the CAS of LPC-0021 (benzene)``
+    Toluene (108-88-3) given benzene's 71-43-2 (CAS Registry):
+    ``compounds.csv row 15, column cas: 71-43-2 is also the CAS of P14 (benzene)``
+    (and the same on benzene's row, naming P15)
 
 References
     1. CAS Registry: one number per substance (cas.org).

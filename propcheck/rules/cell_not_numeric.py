@@ -21,7 +21,10 @@ Parameters
     None.
 
 Example finding
-    ``compounds row 7 (compounds.csv), column tc: '507.6 K' is not a number``
+    n-Hexane's tc (IUPAC) entered with its unit:
+    ``compounds.csv row 6, column tc: '507.6 K' is not a number`` with
+    suggestion ``a number with a unit ('K'): store the number alone and
+    declare the unit in the mapping file``
 
 References
     1. README, 'Usage' (canonical columns and units; a cell that does not parse).

@@ -46,8 +46,11 @@ Parameters
         source names (or parts of them) to leave out, e.g. the compilation the database was built from.
 
 Example finding
-    ``tc = 234.45 K is off the reference consensus 507.7 K (z = 130; 5 of
-    5 sources disagree): IUPAC critical-data series 507.6, ...``
+    n-Hexane's tc 507.6 K (IUPAC) entered in degC: ``tc = 234.45 K is off
+    the reference consensus 507.6 K (z = 109; 7 of 7 sources disagree
+    beyond z 5; identified by CAS 110-54-3). Sources: IUPAC critical-data
+    series (J. Chem. Eng. Data 1995-2015) 507.6; ...`` with suggestion
+    ``degC entered as K?``
 
 References
     1. IUPAC critical-data series, J. Chem. Eng. Data 40-61 (1995-2015), Parts 1-12.

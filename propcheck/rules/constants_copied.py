@@ -11,15 +11,17 @@ Why it matters
 
 Method
     Self-join on (tc, pc, omega) in DuckDB; both rows are reported, naming
-    each other. When the family trend gives an expected value, the finding
-    says so.
+    each other.
 
 Parameters
     None.
 
 Example finding
-    ``tc, pc, omega (617.15 K, 3.609e+06 Pa, 0.301) identical to LPC-0019
-    (ethylbenzene)``
+    p-Xylene (P17) filled with ethylbenzene's tc, pc, omega (IUPAC; Zhou
+    et al. 2012 EOS): ``tc, pc, omega (617.15 K, 3.609e+06 Pa, 0.304)
+    identical to P16 (ethylbenzene)`` with suggestion ``possibly copied
+    from another compound: check against a reference`` (and the same on
+    P16, naming P17)
 
 References
     1. D. Ambrose, C. Tsonopoulos, J. Chem. Eng. Data 40, 531 (1995)

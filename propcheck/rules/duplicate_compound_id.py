@@ -16,7 +16,9 @@ Parameters
     None.
 
 Example finding
-    ``compounds row 31: compound_id LPC-0007 is used again (first at row 7, 'n-heptane')``
+    n-Heptane's row given n-hexane's id P06:
+    ``compounds.csv row 7, column compound_id: compound_id P06 is used
+    again (first at row 6, 'n-hexane'); this row is not checked``
 
 References
     1. README, 'Usage' (rows that cannot be checked: a duplicate id).

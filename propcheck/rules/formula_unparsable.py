@@ -17,7 +17,7 @@ Parameters
     None.
 
 Example finding
-    ``formula 'C6H1x' does not parse as a molecular formula``
+    n-Hexane's formula C6H14 mistyped: ``formula 'C6H1x' does not parse as a molecular formula``
 
 References
     1. IUPAC, Nomenclature of Inorganic Chemistry (Red Book, 2005), IR-3, IR-4.

@@ -24,8 +24,10 @@ Parameters
     None.
 
 Example finding
-    ``name 'm-xylene' is CAS 108-38-3 in the identifier database, but cas
-    106-42-3 is p-xylene; reference checks use 106-42-3``
+    Benzene (71-43-2, C6H6) with the formula typed C6H12: ``formula C6H12
+    differs from C6H6, the formula of CAS 71-43-2 (benzene); identified by
+    CAS 71-43-2`` (a name of another compound is reported by
+    ``cas-names-other-compound`` under the default pack)
 
 References
     1. C. Bell et al., chemicals: chemical properties component of Chemical

@@ -26,8 +26,11 @@ Parameters
         Beyond this difference the finding is an error [g/mol].
 
 Example finding
-    ``molar_mass 0.086178 g/mol vs 86.178 g/mol from C6H14`` with suggestion
-    ``likely: kg/mol entered as g/mol? corrected molar_mass 86.178 g/mol``
+    n-Hexane (86.178 g/mol, IUPAC 2021 weights) typed 68.178:
+    ``molar_mass 68.178 g/mol vs 86.178 g/mol from C6H14`` with suggestion
+    ``likely: transposed digits (68.178 for 86.178)? corrected molar_mass
+    86.178 g/mol ...`` (a kg/mol slip below 1 g/mol is withheld by
+    ``value-out-of-range``)
 
 References
     1. T. Prohaska et al., "Standard atomic weights of the elements 2021",

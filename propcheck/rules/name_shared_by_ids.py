@@ -16,7 +16,8 @@ Parameters
     None.
 
 Example finding
-    ``name 'toluene' is also used by LPC-0044``
+    Ethylbenzene's row (P16) named 'toluene', like P15:
+    ``name 'toluene' is also used by P16`` (and the same on P16, naming P15)
 
 References
     1. Data-management practice: one row per substance (common practice).

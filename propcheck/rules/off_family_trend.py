@@ -56,9 +56,12 @@ Parameters
         member findings.
 
 Example finding
-    ``n-hexane tc 570.6 K is off the n-alkane trend: expected 507.519 K from
-    n-butane, n-pentane, n-heptane, n-octane, n-decane`` with suggestion
-    ``likely: transposed digits (570.6 for 507.6)? corrected tc 507.6 K``
+    n-Alkanes C1-C8 and C10 (tc IUPAC, n-decane Lemmon & Span 2006) with
+    n-hexane's tc 507.6 K typed 570.6: ``n-hexane tc 570.6 K is off the
+    n-alkane trend: expected 507.437 K from propane, n-butane, n-pentane,
+    n-heptane, n-octane, n-decane (tc rises with carbon number)`` with
+    suggestion ``likely: transposed digits (570.6 for 507.6)? corrected tc
+    507.6 K ...``
 
 References
     1. D. Ambrose, C. Tsonopoulos, J. Chem. Eng. Data 40, 531 (1995).

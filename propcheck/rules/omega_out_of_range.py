@@ -21,8 +21,10 @@ Parameters
         [low, high] of omega accepted.
 
 Example finding
-    ``omega 3.2 is outside [-0.4, 1.5]`` with suggestion ``likely: decimal
-    point shifted (10x too large)? corrected omega 0.32``
+    Benzene (omega 0.211, Thol et al. 2012 EOS) with omega typed 2.11:
+    ``omega 2.11 is outside [-0.4, 1.5]`` with suggestion ``likely:
+    decimal point shifted (10x too large)? corrected omega 0.211 ...``
+    (a tenfold omega above 2.5 is withheld by ``value-out-of-range``)
 
 References
     1. K. S. Pitzer et al., J. Am. Chem. Soc. 77, 3433 (1955).

@@ -42,7 +42,7 @@ Parameters
 Example finding
     n-Hexane (tc 507.6 K IUPAC, tb 341.87 K CRC) with tc entered in degC:
     ``tb = 341.87 K is not below tc = 234.45 K; tc is likely wrong`` with
-    suggestion ``degC entered as K? corrected tc 507.6 K``
+    suggestion ``likely: degC entered as K? corrected tc 507.6 K ...``
 
 References
     1. Poling, Prausnitz, O'Connell, The Properties of Gases and Liquids,

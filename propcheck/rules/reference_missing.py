@@ -19,8 +19,9 @@ Parameters
     None.
 
 Example finding
-    ``not identified (no valid CAS; name and formula unknown to the
-    identifier database): not cross-checked``
+    A row for Therminol 66 (a heat-transfer fluid, a mixture) without CAS
+    or formula: ``not identified (no valid, known CAS; name and formula
+    unknown to the identifier database): not cross-checked``
 
 References
     1. C. Bell et al., chemicals (identifiers, critical, phase_change modules), version 1.5.

@@ -19,7 +19,8 @@ Parameters
     None.
 
 Example finding
-    ``compounds row 12: required value name is empty``
+    n-Hexane's row with the name left out:
+    ``compounds.csv row 6, column name: required value name is empty``
 
 References
     1. README, 'Usage' (rows that cannot be checked) and 'The rule pack'

@@ -36,9 +36,11 @@ Parameters
         or S (hydrogen bonding and polar compounds fit Lee-Kesler worse).
 
 Example finding
-    ``tb 329.85 K vs 299.02 K from Lee-Kesler (tc 506.5 K, pc 4.75e+06 Pa,
-    omega 0.032); omega is likely wrong`` with suggestion ``likely: decimal
-    point shifted (10x too small)? corrected omega 0.32``
+    Acetone (tc 508.1 K, pc 4.7 MPa IUPAC; tb 329.23 K CRC; omega 0.307
+    Lemmon & Span 2006) with omega typed 0.0307: ``tb 329.23 K vs 300.13 K
+    from Lee-Kesler (tc 508.1 K, pc 4.7e+06 Pa, omega 0.0307); omega is
+    likely wrong`` with suggestion ``likely: decimal point shifted (10x too
+    small)? corrected omega 0.307 ...``
 
 References
     1. B. I. Lee, M. G. Kesler, AIChE J. 21, 510 (1975).

@@ -25,8 +25,10 @@ Parameters
         A ratio below this is an error.
 
 Example finding
-    ``tb/tc = 0.285 (tb 174.1 K, tc 611.7 K) is outside [0.55, 0.87]``
-    with suggestion ``likely: degC entered as K? corrected tb 447.25 K``
+    n-Decane (tc 617.7 K, Lemmon & Span 2006; tb 447.25 K, CRC Handbook)
+    with tb entered in degC: ``tb/tc = 0.282 (tb 174.1 K, tc 617.7 K) is
+    outside [0.55, 0.87]`` with suggestion ``likely: degC entered as K?
+    corrected tb 447.25 K ...``
 
 References
     1. C. M. Guldberg, Z. Phys. Chem. 5, 374 (1890).

@@ -25,7 +25,8 @@ Parameters
         Table of ``column = [low, high]`` for the boiling_points table.
 
 Example finding
-    ``compounds row 4, column pc: -3025000 is outside [100000, 200000000] Pa``
+    n-Hexane (pc 3.025 MPa, IUPAC) with a minus sign:
+    ``compounds.csv row 6, column pc: -3.025e+06 is outside [100000, 2e+08] Pa``
 
 References
     1. Poling, Prausnitz, O'Connell, The Properties of Gases and Liquids, 5th

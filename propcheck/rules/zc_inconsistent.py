@@ -9,7 +9,10 @@ Why it matters
     tc, pc and vc are measured together; a Zc far from 0.27 betrays a
     volume in cm3/mol or L/mol, a pressure in bar or kPa, or a constant of
     another compound. A stored zc that disagrees with the three it is made
-    of means one of the four was edited alone.
+    of means one of the four was edited alone. Those unit slips put vc or
+    pc outside the bounds of ``value-out-of-range``, which withholds the
+    value (with the same diagnosis) before this rule sees it; here remain
+    slips such as transposed digits.
 
 Method
     Zc = pc vc / (R tc), R = 8.314462618 J/(mol K) (SI 2019). IUPAC set of
@@ -31,8 +34,10 @@ Parameters
         Above this |zc - pc vc/(R tc)| the finding is an error.
 
 Example finding
-    ``Zc = pc*vc/(R*tc) = 268 is outside [0.2, 0.31]`` with suggestion
-    ``likely: cm3/mol entered as m3/mol? corrected vc 0.000256 m3/mol``
+    Benzene (IUPAC: tc 562.05 K, pc 4.895 MPa, vc 256 cm3/mol, Zc 0.268)
+    with zc typed 0.286: ``stored zc 0.286 differs from pc*vc/(R*tc) =
+    0.2682`` with suggestion ``likely: transposed digits (0.286 for
+    0.268)? corrected zc 0.268 ...``
 
 References
     1. Poling, Prausnitz, O'Connell, The Properties of Gases and Liquids,
