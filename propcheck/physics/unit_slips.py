@@ -85,6 +85,10 @@ def temperature_slip(observed, expected, abs_tol: float = 3.0):
     abs_tol : float
         Accepted misfit [K] of the corrected value.
 
+    A scale slip is named only when undoing it moves the value by more than
+    ten times ``abs_tol`` and 5 % of the expected value: near 575 K degF and
+    K nearly coincide, and a small error there is no degF slip.
+
     Examples
     --------
     n-hexane normal boiling point 341.87 K (CRC Handbook) stored in degC:
@@ -101,7 +105,8 @@ def temperature_slip(observed, expected, abs_tol: float = 3.0):
     for what, convert in TEMPERATURE_SLIPS:
         fixed = convert(obs)
         misfit = np.abs(fixed - exp)
-        hit = (misfit < abs_tol) & (misfit < best)
+        moved = np.abs(fixed - obs) > np.maximum(10.0 * abs_tol, 0.05 * np.abs(exp))
+        hit = (misfit < abs_tol) & (misfit < best) & moved
         best = np.where(hit, misfit, best)
         text[hit] = f"{what}?"
         corrected = np.where(hit, fixed, corrected)

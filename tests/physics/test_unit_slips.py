@@ -35,3 +35,13 @@ def test_temperature_slips(stored, text):
     found, corrected = temperature_slip([stored], [341.87])
     assert text in found[0]
     assert corrected[0] == pytest.approx(341.87, abs=1e-3)
+
+
+def test_small_error_near_575_k_is_no_degf_slip():
+    """Near 575 K degF read as K is almost the identity: a 15 K error there must not be called a degF slip."""
+    # toluene tc 591.75 K (IUPAC, Tsonopoulos & Ambrose 1995) stored 15 K high; (606.75 + 459.67)/1.8 = 592.46 K
+    text, fixed = temperature_slip([606.75], [591.75])
+    assert text[0] == "" and np.isnan(fixed[0])
+    # a real degF slip still is one: n-hexane tb 341.87 K (CRC Handbook 95th ed.) = 155.696 degF (exact conversion)
+    text, fixed = temperature_slip([155.696], [341.87])
+    assert text[0] == "degF entered as K?" and fixed[0] == pytest.approx(341.87, abs=1e-3)
