@@ -51,6 +51,7 @@ class Context:
     carbon: np.ndarray
     family_code: np.ndarray  # -1: no family or not a series
     polar: np.ndarray | None = None  # formula holds O, N, F or S atoms (Lee-Kesler tolerance widened)
+    withheld: dict[str, np.ndarray] = field(default_factory=dict)  # out-of-range values the schema stage nulled
     judged: dict[str, np.ndarray] = field(default_factory=dict)  # member may be judged for this column
     expected: dict[str, np.ndarray] = field(default_factory=dict)
     tolerance: dict[str, np.ndarray] = field(default_factory=dict)
@@ -154,6 +155,10 @@ def build_context(db, params: dict | None = None) -> Context:
     code_values, uniques = pd.factorize(family)
     code = np.where((family == "") | family.isin(not_series), -1, code_values)
     ctx = Context(frame=frame, values=values, formula_mass=mass, carbon=carbon, family_code=code, polar=polar)
+    position = {r: i for i, r in enumerate(frame["_row"].to_numpy())}
+    for (row, column), value in db.cache.get("withheld_cells", {}).items():
+        if row in position and column in NUMERIC:
+            ctx.withheld.setdefault(column, np.full(len(frame), np.nan))[position[row]] = value
     x = _family_x(frame, carbon, np.where(np.isfinite(values["molar_mass"]), values["molar_mass"], mass), code)
     ctx.x = x
     # irregular heads: the first members of some series are neither judged nor used as neighbours

@@ -193,9 +193,12 @@ def diagnose(ctx: Context, rows, columns, raw: dict[str, np.ndarray] | None = No
 
     ``columns[k]`` may be one column or a tuple of columns to try (the best
     over them is kept: attribution between constants that disagree).
-    ``raw`` overrides the context values (cells withheld by the schema stage).
+    ``raw`` overrides the context values; by default the cells the schema
+    stage withheld as out of range (a slip may explain them, or a swap may
+    bring them back into range).
     """
     rows = np.asarray(rows, dtype=int)
+    raw = ctx.withheld if raw is None else raw
     base = {c: ctx.values[c].copy() for c in NUMERIC}
     for c, arr in (raw or {}).items():
         base[c] = np.where(np.isfinite(arr), arr, base[c])

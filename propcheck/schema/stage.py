@@ -175,6 +175,8 @@ def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
                 reject_rows.add(row)
             else:
                 null_cells.setdefault(column, set()).add(row)
+                if table == "compounds":  # kept for the slip diagnosis, which may restore it (propcheck.diagnose)
+                    db.cache.setdefault("withheld_cells", {})[(row, column)] = float(value)
             new("value-out-of-range", row, column, f"{value:.6g} is outside [{low:g}, {high:g}] {_unit(table, column)}",
                 observed=float(value), expected=f"[{low:g}, {high:g}]", tolerance=None,
                 reference="value-out-of-range bounds, rules/default.toml")
