@@ -1,11 +1,11 @@
-"""CAS Registry Numbers: format and check digit, vectorised over a column."""
+"""CAS Registry Numbers: format and check digit, vectorised over a column; lookup in the offline identifier database."""
 
 from __future__ import annotations
 
 import numpy as np
 import pandas as pd
 
-__all__ = ["CAS_PATTERN", "cas_check_digit", "cas_format_ok", "cas_check_digit_ok"]
+__all__ = ["CAS_PATTERN", "cas_check_digit", "cas_format_ok", "cas_check_digit_ok", "lookup_chemical"]
 
 CAS_PATTERN = r"^[0-9]{2,7}-[0-9]{2}-[0-9]$"
 
@@ -49,3 +49,15 @@ def cas_check_digit_ok(cas: pd.Series) -> pd.Series:
     actual = digits.str[-1].astype(int).to_numpy()
     result.loc[formed[formed].index] = expected == actual
     return result
+
+
+def lookup_chemical(text):
+    """The identifier database's record for a CAS or a name (``chemicals.identifiers``, offline), or None if unknown."""
+    if text is None or not str(text).strip():
+        return None
+    from chemicals.identifiers import search_chemical  # loads the database on first use
+
+    try:
+        return search_chemical(str(text).strip())
+    except Exception:  # unknown to the database
+        return None

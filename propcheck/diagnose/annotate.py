@@ -4,12 +4,11 @@ Runs after every rule (built-in, other engineers', custom): a finding on
 ``compounds`` whose column is a numeric constant and that carries no
 suggestion gets the repair that makes its row consistent, if one does, in
 ``suggestion`` and ``corrected``. Values the schema stage withheld (out of
-range) are restored from those findings' ``observed`` for the trial.
+range) take part in the trial (``Context.withheld``).
 """
 
 from __future__ import annotations
 
-import numpy as np
 import pandas as pd
 
 from propcheck.diagnose.context import NUMERIC, get_context
@@ -44,17 +43,12 @@ def annotate_findings(db, findings: pd.DataFrame) -> pd.DataFrame:
     if not mask.any():
         return findings
     ctx = get_context(db)
-    position = {r: i for i, r in enumerate(ctx.frame["_row"].to_numpy())}
-    raw = {c: np.full(len(ctx.frame), np.nan) for c in NUMERIC}
-    withheld = findings[(findings["rule"] == "value-out-of-range") & (findings["table"] == "compounds")]
-    for row, column, observed in zip(withheld["row"], withheld["column"], withheld["observed"]):
-        if row in position and column in raw:
-            raw[column][position[row]] = float(observed)
-    chosen = [(i, position[r], c) for i, r, c in zip(findings.index[mask], findings.loc[mask, "row"], findings.loc[mask, "column"])
-              if r in position]
+    at = ctx.positions(findings.loc[mask, "row"])
+    chosen = [(i, p, c) for i, p, c in zip(findings.index[mask], at, findings.loc[mask, "column"]) if p >= 0]
     if not chosen:
         return findings
-    diags = diagnose(ctx, [p for _, p, _ in chosen], [c for _, _, c in chosen], raw)
+    # the values the schema stage withheld (out of range) are tried from the context (Context.withheld)
+    diags = diagnose(ctx, [p for _, p, _ in chosen], [c for _, _, c in chosen])
     out = findings.copy()
     for (i, _, column), diag in zip(chosen, diags):
         if diag is not None and diag.column == column:

@@ -100,6 +100,11 @@ class Context:
             omega = omega_from_psat(np.exp(self.curve.ln_p(t07, gs)), pc)
         return np.where(inside, omega, out)
 
+    def positions(self, rows) -> np.ndarray:
+        """Each compounds ``_row`` of ``rows`` as its position in the context frame (-1 where absent)."""
+        index = pd.Index(self.frame["_row"].to_numpy())
+        return index.get_indexer(np.asarray(rows))
+
     def expected_value(self, column: str, row: int) -> float:
         value = self.expected[column][row]
         return float(np.exp(value)) if column == "pc" else float(value)
@@ -155,10 +160,10 @@ def build_context(db, params: dict | None = None) -> Context:
     code_values, uniques = pd.factorize(family)
     code = np.where((family == "") | family.isin(not_series), -1, code_values)
     ctx = Context(frame=frame, values=values, formula_mass=mass, carbon=carbon, family_code=code, polar=polar)
-    position = {r: i for i, r in enumerate(frame["_row"].to_numpy())}
-    for (row, column), value in db.cache.get("withheld_cells", {}).items():
-        if row in position and column in NUMERIC:
-            ctx.withheld.setdefault(column, np.full(len(frame), np.nan))[position[row]] = value
+    withheld = db.cache.get("withheld_cells", {})
+    for ((row, column), value), at in zip(withheld.items(), ctx.positions([r for r, _ in withheld])):
+        if at >= 0 and column in NUMERIC:
+            ctx.withheld.setdefault(column, np.full(len(frame), np.nan))[at] = value
     x = _family_x(frame, carbon, np.where(np.isfinite(values["molar_mass"]), values["molar_mass"], mass), code)
     ctx.x = x
     # irregular heads: the first members of some series are neither judged nor used as neighbours

@@ -41,6 +41,7 @@ import pandas as pd
 
 from propcheck.diagnose import get_context
 from propcheck.diagnose.annotate import make_finding
+from propcheck.identifiers import lookup_chemical
 from propcheck.physics.atomic_weights import parse_formula
 from propcheck.rules.base import RuleInfo
 
@@ -54,15 +55,6 @@ RULE = RuleInfo(
 )
 
 
-def _lookup(text):
-    from chemicals.identifiers import search_chemical
-
-    try:
-        return search_chemical(str(text))
-    except Exception:  # unknown to the database: not judged
-        return None
-
-
 def check(db, params) -> pd.DataFrame:
     ctx = get_context(db)
     frame = ctx.frame
@@ -70,9 +62,9 @@ def check(db, params) -> pd.DataFrame:
     ok = cas.notna() & cas.astype(str).str.fullmatch(r"[0-9]{2,7}-[0-9]{2}-[0-9]")
     if not ok.any():
         return pd.DataFrame()
-    by_cas = {c: _lookup(c) for c in cas[ok].unique()}  # index lookups per distinct CAS
+    by_cas = {c: lookup_chemical(c) for c in cas[ok].unique()}  # index lookups per distinct CAS
     names = frame["name"].astype(object)
-    by_name = {n: _lookup(n) for n in names[ok & names.notna()].unique()}
+    by_name = {n: lookup_chemical(n) for n in names[ok & names.notna()].unique()}
     out = []
     for r in np.flatnonzero(ok.to_numpy()):  # rows with a CAS to look up
         meta = by_cas.get(cas.iloc[r])

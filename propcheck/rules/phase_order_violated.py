@@ -53,7 +53,6 @@ References
 from __future__ import annotations
 
 import numpy as np
-import pandas as pd
 
 from propcheck.diagnose import diagnose, get_context
 from propcheck.findings import Finding
@@ -91,24 +90,21 @@ def _reference_tm(db, rows: np.ndarray) -> np.ndarray:
     """The reference median of tm for compounds rows ``rows`` (NaN where none or no reference rule runs)."""
     ctx = get_context(db)
     ref = ctx.reference.get("tm")
+    at = ctx.positions(rows)
     if ref is None:
         return np.full(len(rows), np.nan)
-    position = pd.Series(np.arange(len(ctx.frame)), index=ctx.frame["_row"].to_numpy())
-    at = position.reindex(rows).to_numpy(dtype=float)
-    return np.where(np.isfinite(at), ref[np.nan_to_num(at).astype(int)], np.nan)
+    return np.where(at >= 0, ref[at], np.nan)
 
 
 def _shared_diagnoses(db, rows: np.ndarray, ask: np.ndarray, t: dict) -> list:
     """The shared slip diagnosis (tm, tb or tc) of each asked row, where its repair restores the order; else None."""
     out = [None] * len(rows)
     ctx = get_context(db)
-    position = pd.Series(np.arange(len(ctx.frame)), index=ctx.frame["_row"].to_numpy())
-    at = position.reindex(rows).to_numpy(dtype=float)
-    ask = ask & np.isfinite(at)
-    if not ask.any():
+    at = ctx.positions(rows)
+    picked = np.nonzero(ask & (at >= 0))[0]
+    if len(picked) == 0:
         return out
-    picked = np.nonzero(ask)[0]
-    for i, diag in zip(picked, diagnose(ctx, at[ask].astype(int), [("tm", "tb", "tc")] * len(picked))):
+    for i, diag in zip(picked, diagnose(ctx, at[picked], [("tm", "tb", "tc")] * len(picked))):
         if diag is None:
             continue
         trial = {k: np.array([v[i]]) for k, v in t.items()}

@@ -47,18 +47,18 @@ RULE = RuleInfo(
 def check(db, params) -> list[Finding]:
     ident = session.identity(db)
     constants = session.constants(db)
-    covered = ident["row"].isin(constants["key"]).to_numpy()
-    beyond_mass = ident["row"].isin(constants.loc[constants["property"] != "molar_mass", "key"]).to_numpy()
-    identified = ident["matched_by"].map(lambda m: isinstance(m, str)).to_numpy(dtype=bool)  # None/NaN: not
+    covered = ident["row"].isin(constants["key"])
+    beyond_mass = ident["row"].isin(constants.loc[constants["property"] != "molar_mass", "key"])
+    identified = ident["matched_by"].notna()  # None or NaN: not identified
+    pick = ~identified | ~beyond_mass
     findings = []
-    for i in (~identified | ~beyond_mass).nonzero()[0]:  # loop over findings
-        rec = ident.iloc[i]
-        if not identified[i]:
-            shared = int(rec.get("formula_candidates", 0) or 0)
+    for rec, known, mass_only in zip(ident[pick].itertuples(index=False), identified[pick], covered[pick]):  # findings
+        if not known:
+            shared = int(rec.formula_candidates or 0)
             why = (f"name unknown to the identifier database, formula shared by {shared} known compounds" if shared > 1
                    else "name and formula unknown to the identifier database")
             message = f"not identified (no valid, known CAS; {why}): not cross-checked"
-        elif covered[i]:
+        elif mass_only:
             message = f"{rec.note}, but the references carry only its molar mass: its other constants are not cross-checked"
         else:
             message = f"{rec.note}, but no reference source carries its constants: not cross-checked"

@@ -86,15 +86,23 @@ def _bands(free, gsel, params, which: str):
     return params[f"{which}_low"] ** power, params[f"{which}_high"] ** power
 
 
+def _at_tc(cv, params):
+    """Compounds whose points reach min_tr, their free fits, p at tc from them, p(tc)/pc and the warned ones."""
+    gsel, free = cv.free_fit_near_critical(params["min_tr"])
+    if free is None:
+        return gsel, None, None, None, None
+    p_tc = np.exp(free.ln_p(cv.tc[gsel], gsel))
+    ratio = p_tc / cv.pc[gsel]
+    low, high = _bands(free, gsel, params, "warn")
+    return gsel, free, p_tc, ratio, np.isfinite(ratio) & ((ratio < low) | (ratio > high))
+
+
 def misses_critical_point(cv, params) -> np.ndarray:
     """Per compound: True where this rule finds the curve off (tc, pc) (its warning band)."""
     out = np.zeros(len(cv.ids), dtype=bool)
-    gsel, free = cv.free_fit_near_critical(params["min_tr"])
-    if free is None:
-        return out
-    ratio = np.exp(free.ln_p(cv.tc[gsel], gsel)) / cv.pc[gsel]
-    low, high = _bands(free, gsel, params, "warn")
-    out[gsel] = np.isfinite(ratio) & ((ratio < low) | (ratio > high))
+    gsel, free, _, _, bad = _at_tc(cv, params)
+    if free is not None:
+        out[gsel] = bad
     return out
 
 
@@ -102,15 +110,12 @@ def check(db, params):
     cv = curves(db)
     if cv is None:
         return None
-    gsel, free = cv.free_fit_near_critical(params["min_tr"])
+    gsel, free, p_tc, ratio, bad = _at_tc(cv, params)
     if free is None:
         return None
     reach = cv.fit.t_max / cv.tc
-    p_tc = np.exp(free.ln_p(cv.tc[gsel], gsel))
-    ratio = p_tc / cv.pc[gsel]
     warn_low, warn_high = _bands(free, gsel, params, "warn")
     error_low, error_high = _bands(free, gsel, params, "error")
-    bad = np.isfinite(ratio) & ((ratio < warn_low) | (ratio > warn_high))
     if not bad.any():
         return None
     rows = []

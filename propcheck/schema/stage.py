@@ -15,7 +15,7 @@ import pandera.pandas as pa
 
 from propcheck.database import Database
 from propcheck.findings import Finding
-from propcheck.identifiers import cas_check_digit, cas_check_digit_ok, cas_format_ok
+from propcheck.identifiers import cas_check_digit, cas_check_digit_ok, cas_format_ok, lookup_chemical
 from propcheck.rules.pack import Pack
 from propcheck.schema.models import BoilingPointsModel, CompoundsModel, VaporPressureModel, VpEquationsModel
 from propcheck.schema.prefilter import suspect_rows_sql
@@ -186,7 +186,9 @@ def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
         elif check == "cas-check-digit":
             body = str(value).rsplit("-", 1)[0]
             digit = cas_check_digit(body)
-            named = _cas_of_name(frame.loc[row, "name"])
+            name = frame.loc[row, "name"]
+            record = lookup_chemical(name) if isinstance(name, str) else None  # the offline identifier database
+            named = record.CASs if record is not None else None
             how = _cas_slip(str(value), named) if named else ""
             suggestion = (f"{how}? the name gives CAS {named}" if how
                           else f"the name gives CAS {named}" if named
@@ -224,18 +226,6 @@ def _check_frame(db: Database, table: str, frame: pd.DataFrame, schema, pack: Pa
         for column in required:
             reject_rows.update(int(r) for r in frame[frame[column].isna()]["_row"])
     return findings, reject_rows, null_cells
-
-
-def _cas_of_name(name) -> str | None:
-    """The CAS the offline identifier database carried by chemicals gives ``name``; None if unknown."""
-    if not isinstance(name, str) or not name.strip():
-        return None
-    from chemicals.identifiers import search_chemical  # only when a check digit fails
-
-    try:
-        return search_chemical(name.strip()).CASs
-    except Exception:  # unknown to the database
-        return None
 
 
 def _cas_slip(stored: str, named: str) -> str:
